@@ -1,0 +1,32 @@
+import type { Role } from '@/lib/auth/roles';
+
+export interface NavItem {
+  href: string;
+  label: string;
+}
+
+// What each kind of visitor sees in the top bar.
+export const NAV_BY_ROLE: Record<Role | 'visitor', NavItem[]> = {
+  visitor: [
+    { href: '/fit', label: 'Fit check' },
+    { href: '/builders', label: 'Find a builder' },
+  ],
+  rider: [
+    { href: '/requests', label: 'My wheel requests' },
+    { href: '/requests/new', label: 'Ask for a build' },
+    { href: '/fit', label: 'Fit check' },
+    { href: '/builders', label: 'Find a builder' },
+  ],
+  builder: [
+    { href: '/board', label: 'Open requests' },
+    { href: '/bids', label: 'My bids' },
+    { href: '/shop/settings', label: 'Shop settings' },
+    { href: '/fit', label: 'Fit check' },
+  ],
+  admin: [
+    { href: '/admin', label: 'Overview' },
+    { href: '/admin/mailbox', label: 'Demo mailbox' },
+    { href: '/fit', label: 'Fit check' },
+    { href: '/builders', label: 'Builders' },
+  ],
+};

@@ -1,0 +1,10 @@
+export const ROLES = ['rider', 'builder', 'admin'] as const;
+export type Role = (typeof ROLES)[number];
+
+export interface SessionUser {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  shopId: string | null;
+}

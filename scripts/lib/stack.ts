@@ -1,0 +1,52 @@
+// The services around the app: used by the start command and by the browser tests, so both run the same thing.
+import path from 'node:path';
+import fs from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { startService, waitForHttp, type Service } from './processes';
+
+export interface StackPorts {
+  app: number;
+  smtp: number;
+  mailApi: number;
+}
+
+export interface StackOptions {
+  databaseUrl: string;
+  ports: StackPorts;
+  appUrl: string;
+  authSecret: string;
+  dataDir: string;
+  quiet?: boolean;
+}
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const bin = (name: string) => path.join(root, 'node_modules/.bin', name);
+
+export function stackEnv(o: StackOptions): NodeJS.ProcessEnv {
+  return {
+    ...process.env,
+    NODE_ENV: 'production',
+    DATABASE_URL: o.databaseUrl,
+    APP_URL: o.appUrl,
+    NEXTAUTH_URL: o.appUrl,
+    AUTH_SECRET: o.authSecret,
+    DEMO_MODE: '1',
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(o.ports.smtp),
+    MAIL_CATCHER_URL: `http://127.0.0.1:${o.ports.mailApi}`,
+    MAIL_CATCHER_API_PORT: String(o.ports.mailApi),
+    MAIL_CATCHER_DATA: path.join(o.dataDir, 'mail.jsonl'),
+  };
+}
+
+/** Starts the local fakes, then the production server; resolves once each answers. */
+export async function startStack(o: StackOptions): Promise<Service[]> {
+  fs.mkdirSync(o.dataDir, { recursive: true });
+  const env = stackEnv(o);
+  const services: Service[] = [];
+  services.push(startService('mail', bin('tsx'), [path.join(root, 'scripts/mail-catcher.ts')], env, { quiet: o.quiet }));
+  await waitForHttp(`http://127.0.0.1:${o.ports.mailApi}/health`, 20_000);
+  services.push(startService('app', bin('next'), ['start', '-p', String(o.ports.app)], { ...env, PORT: String(o.ports.app) }, { quiet: o.quiet }));
+  await waitForHttp(`http://127.0.0.1:${o.ports.app}/api/health`, 60_000);
+  return services;
+}
