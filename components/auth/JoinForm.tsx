@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { useForm, type FieldErrors } from 'react-hook-form';
+import { useForm, useWatch, type FieldErrors } from 'react-hook-form';
 import type { z } from 'zod';
 import { Button } from '@/components/ui/Button';
 import { TextField } from '@/components/ui/Field';
@@ -18,7 +18,7 @@ export function JoinForm() {
   const router = useRouter();
   const [failure, setFailure] = useState<string | null>(null);
   const form = useForm<JoinValues>({ resolver: zodResolver(signUpSchema), defaultValues: { role: 'rider' } });
-  const role = form.watch('role');
+  const role = useWatch({ control: form.control, name: 'role' });
   const errors = form.formState.errors as BuilderErrors;
 
   const onSubmit = form.handleSubmit(async (values) => {
