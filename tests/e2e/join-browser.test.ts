@@ -57,7 +57,7 @@ describe('joining and signing in, in a browser', () => {
     await page.context().clearCookies();
     await page.goto(`${appUrl}/sign-in`);
     await page.getByLabel('E-mail', { exact: true }).fill('rider@demo.lacewright.test');
-    await page.getByLabel('Password').fill('lacewright-demo');
+    await page.getByLabel('Password', { exact: true }).fill('lacewright-demo');
     await page.getByRole('button', { name: 'Sign in', exact: true }).click();
     await page.waitForURL('**/requests');
     expect(await navLabels()).toEqual(['My wheel requests', 'Ask for a build', 'Fit check', 'Find a builder']);
