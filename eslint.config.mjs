@@ -4,7 +4,7 @@ import nextTs from 'eslint-config-next/typescript';
 const config = [
   ...nextVitals,
   ...nextTs,
-  { ignores: ['.next/**', 'node_modules/**', '.data/**', 'test-results/**', 'next-env.d.ts'] },
+  { ignores: ['.next/**', '.next-test/**', 'node_modules/**', '.data/**', 'test-results/**', 'next-env.d.ts'] },
 ];
 
 export default config;
