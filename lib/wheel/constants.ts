@@ -26,7 +26,7 @@ export const MODEL_CONSTANTS = {
   offsetCogDishMm: k(12.7, 'mm', 'how far an offset (dished) cog moves the rear chainline outward', 'from memory: about ½ inch; measure the cog in hand'),
   ringInsetFromSpindleEndMm: k(10, 'mm', 'spindle end to chainring centre (front chainline = spindle ÷ 2 − this)', 'from memory: a 107 mm spindle gives about a 43.5 mm chainline'),
   ringToShellFaceMinMm: k(8, 'mm', 'least distance from shell face to chainring centre so the ring clears the chainstay', 'common practice, no source'),
-  maxSpindleOverhangMm: k(28, 'mm', 'longest spindle stub beyond each shell face', 'from memory: the longest common spindles for a 68 mm shell are about 122 to 127 mm'),
+  maxSpindleOverhangMm: k(29.5, 'mm', 'longest spindle stub beyond each shell face', 'from memory: the longest common spindle for a 68 mm shell is about 127 mm, 29.5 mm beyond each face'),
   bbShellRadiusMm: k(20, 'mm', 'outer radius of the bottom-bracket shell tube', 'from memory: shells are about 40 mm across'),
   tireToShellMinMm: k(5, 'mm', 'least gap between the tire tread and the bottom-bracket shell', 'common practice, no source'),
 

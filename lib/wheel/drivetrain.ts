@@ -7,12 +7,13 @@ import {
   IGH3_RATIOS,
   MAX_SPINDLE_OVERHANG_MM,
   MIN_CHAIN_TIRE_CLEARANCE_MM,
+  RIM_SIDEWALL_DEPTH_MM,
   RING_INSET_FROM_SPINDLE_END_MM,
   RING_TO_SHELL_FACE_MIN_MM,
 } from './constants';
 import type { CogKind, HubKind, HubSpec } from './catalogue';
 import { cogFor } from './catalogue';
-import { sectionHalfWidthAt, type WheelSection } from './section';
+import { rimOuterDiameterMm, sectionHalfWidthAt, tireOuterDiameterMm, type WheelSection } from './section';
 import { MM_PER_INCH, radToDeg } from './units';
 
 /** Pitch radius of a sprocket: r = p ÷ (2 sin(180° ÷ N)), the standard sprocket pitch-diameter formula (from memory). */
@@ -77,14 +78,24 @@ export interface ChainClearance {
   profile: { yMm: number; chainXMm: number; obstacleHalfWidthMm: number }[];
 }
 
-const RUN_SAMPLES = 3000;
-const PROFILE_EVERY = 50;
+const RUN_SAMPLES = 800;
+const PROFILE_POINTS = 40;
+
+/** Larger parameter s where the line A + s·D is at distance r from the axle, or null if it never is. */
+function lineExitAt(a: { y: number; z: number }, d: { y: number; z: number }, r: number): number | null {
+  const qa = d.y * d.y + d.z * d.z;
+  const qb = 2 * (a.y * d.y + a.z * d.z);
+  const qc = a.y * a.y + a.z * a.z - r * r;
+  const disc = qb * qb - 4 * qa * qc;
+  if (qa === 0 || disc < 0) return null;
+  return (-qb + Math.sqrt(disc)) / (2 * qa);
+}
 
 /**
  * Lateral clearance between chain and tire. The upper run is the outer tangent of cog and ring seen from
- * the side (the lower run mirrors it); at each point the chain's sideways position moves linearly from the
- * rear chainline to the front one, and the tire's half-width is taken at that point's radius from the axle.
- * Returns null when the run never passes beside the rim or tire.
+ * the side (the lower run mirrors it); along it the chain's sideways position moves linearly from the
+ * rear chainline to the front one, and the tire's half-width is taken at each point's radius from the axle.
+ * Only the stretch that passes beside the rim or tire is sampled. Null when the run never passes beside them.
  */
 export function chainToTireClearance(section: WheelSection, run: ChainRun): ChainClearance | null {
   const L = requireFinite('chainstayLengthMm', run.chainstayLengthMm, 100, 2000);
@@ -92,21 +103,31 @@ export function chainToTireClearance(section: WheelSection, run: ChainRun): Chai
   requireFinite('frontChainlineMm', run.frontChainlineMm, 0, 200);
   const rc = sprocketPitchRadiusMm(run.cogTeeth);
   const rr = sprocketPitchRadiusMm(run.chainringTeeth);
-  const sinB = (rr - rc) / L; // outer tangent tilt
-  const cosB = Math.sqrt(Math.max(0, 1 - sinB * sinB));
+  const sinB = Math.max(-1, Math.min(1, (rr - rc) / L)); // outer tangent tilt
+  const cosB = Math.sqrt(1 - sinB * sinB);
   const a = { y: -rc * sinB, z: rc * cosB };
   const b = { y: L - rr * sinB, z: rr * cosB };
+  const d = { y: b.y - a.y, z: b.z - a.z };
+
+  const innerR = section.bsdMm / 2 - RIM_SIDEWALL_DEPTH_MM;
+  const outerR = Math.max(tireOuterDiameterMm(section), rimOuterDiameterMm(section.bsdMm)) / 2;
+  const sIn = Math.hypot(a.y, a.z) >= innerR ? 0 : lineExitAt(a, d, innerR);
+  const sOut = lineExitAt(a, d, outerR);
+  if (sIn === null || sIn > 1) return null;
+  const s0 = Math.max(0, sIn);
+  const s1 = Math.min(1, sOut ?? 1);
 
   let best: Omit<ChainClearance, 'profile'> | null = null;
   const profile: ChainClearance['profile'] = [];
+  const every = Math.max(1, Math.round(RUN_SAMPLES / PROFILE_POINTS));
   for (let i = 0; i <= RUN_SAMPLES; i++) {
-    const s = i / RUN_SAMPLES;
-    const y = a.y + s * (b.y - a.y);
-    const z = a.z + s * (b.z - a.z);
+    const s = s0 + ((s1 - s0) * i) / RUN_SAMPLES;
+    const y = a.y + s * d.y;
+    const z = a.z + s * d.z;
     const x = run.rearChainlineMm + s * (run.frontChainlineMm - run.rearChainlineMm);
     const w = sectionHalfWidthAt(section, Math.hypot(y, z));
     if (w.part === null) continue;
-    if (i % PROFILE_EVERY === 0) profile.push({ yMm: y, chainXMm: x, obstacleHalfWidthMm: w.halfWidthMm });
+    if (i % every === 0) profile.push({ yMm: y, chainXMm: x, obstacleHalfWidthMm: w.halfWidthMm });
     const gap = x - CHAIN_HALF_WIDTH_MM - w.halfWidthMm;
     if (best === null || gap < best.clearanceMm) {
       best = { clearanceMm: gap, atYMm: y, chainXMm: x, obstacleHalfWidthMm: w.halfWidthMm, part: w.part };
@@ -129,7 +150,7 @@ export function frontChainlineNeededMm(
   let hi = 200;
   if (!ok(hi)) return null;
   if (ok(lo)) return lo;
-  for (let i = 0; i < 40; i++) {
+  for (let i = 0; i < 24; i++) {
     const mid = (lo + hi) / 2;
     if (ok(mid)) hi = mid;
     else lo = mid;
