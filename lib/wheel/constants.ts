@@ -38,7 +38,7 @@ export const MODEL_CONSTANTS = {
 
   // Spokes and flanges
   spokeHeadToWireRatio: k(2.2, 'ratio', 'spoke head diameter ÷ wire diameter', 'from memory: a 14-gauge head is about 4.5 mm across'),
-  spokeHeadClearanceMm: k(0.3, 'mm', 'least gap between a spoke and a neighbouring spoke head', 'common practice, no source'),
+  spokeHeadClearanceMm: k(0, 'mm', 'least gap between a spoke’s centreline and the edge of the neighbouring head: it may bear on the edge but not run across the head', 'common practice, no source: 4 cross overlaps heads on small flanges, not on large ones'),
   holeClearanceMinMm: k(0.2, 'mm', 'least gap between spoke wire and flange hole before drilling is needed', 'common practice, no source'),
   drilledHoleOversizeMm: k(0.4, 'mm', 'drilled hole = wire diameter + this', 'common practice, no source: a 14-gauge spoke sits in a 2.4 to 2.6 mm hole'),
   minFlangeWallMm: k(1.5, 'mm', 'least metal left between neighbouring flange holes', 'common practice, no source'),

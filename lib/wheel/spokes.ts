@@ -177,8 +177,9 @@ export interface LacingCheck {
 }
 
 /**
- * Gap between a spoke leaving hole P and the head in the next hole along, which sits on the face the
- * spoke runs across (heads alternate in and out). Plane geometry in the wheel plane, flange offset ignored.
+ * Gap between the centreline of a spoke leaving hole P and the edge of the head in the next hole along,
+ * which sits on the face the spoke runs across (heads alternate in and out). Plane geometry in the wheel
+ * plane; the spoke's lift off the flange face is ignored, which errs on the safe side.
  * Returns -Infinity when the spoke would wrap around the flange (past tangent).
  */
 function headGapMm(flangePcdMm: number, erdMm: number, spokesPerFlange: number, crosses: number, gauge: number): number {
@@ -193,9 +194,7 @@ function headGapMm(flangePcdMm: number, erdMm: number, spokesPerFlange: number, 
   const dx = q.x - p.x;
   const dy = q.y - p.y;
   const distance = Math.abs(dx * (n.y - p.y) - dy * (n.x - p.x)) / Math.hypot(dx, dy);
-  const spokeRadius = swgToMm(gauge) / 2;
-  const headRadius = spokeHeadDiameterMm(gauge) / 2;
-  return distance - spokeRadius - headRadius;
+  return distance - spokeHeadDiameterMm(gauge) / 2;
 }
 
 /** Whether a cross count laces on this flange: hole spacing, head interference, tangent limit, and torque. */
@@ -230,7 +229,7 @@ export function validateLacing(input: LacingInput): LacingCheck {
   // Heads alternate in and out, so heads on one face are two holes apart.
   const sameFaceSpacing = pcd * Math.sin((2 * Math.PI) / perFlange);
   const headDiameter = spokeHeadDiameterMm(gauge);
-  if (sameFaceSpacing < headDiameter + SPOKE_HEAD_CLEARANCE_MM) {
+  if (sameFaceSpacing < headDiameter) {
     return {
       ...base,
       ok: false,
