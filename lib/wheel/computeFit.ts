@@ -84,7 +84,10 @@ export function parseFitRequest(input: unknown): FitRequest {
   return parsed.data;
 }
 
-export function computeFit(raw: FitRequestInput | unknown): FitResult {
+/** Validates the request with the shared schema, then computes fitment, spokes, lacing, cost, masses, gearing and diagram geometry. */
+export function computeFit(raw: FitRequestInput): FitResult;
+export function computeFit(raw: unknown): FitResult;
+export function computeFit(raw: unknown): FitResult {
   const input = parseFitRequest(raw);
   const hub = hubById(input.hubId);
   const drilled = hubDrilling(hub, input.spokes);

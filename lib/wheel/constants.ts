@@ -42,7 +42,7 @@ export const MODEL_CONSTANTS = {
   holeClearanceMinMm: k(0.2, 'mm', 'least gap between spoke wire and flange hole before drilling is needed', 'common practice, no source'),
   drilledHoleOversizeMm: k(0.4, 'mm', 'drilled hole = wire diameter + this', 'common practice, no source: a 14-gauge spoke sits in a 2.4 to 2.6 mm hole'),
   minFlangeWallMm: k(1.5, 'mm', 'least metal left between neighbouring flange holes', 'common practice, no source'),
-  stainlessDensityGPerCm3: k(8.0, 'g/cm³', 'density of AISI 304 stainless spoke wire', 'ASM/MatWeb AISI 304 data sheet (suppliers also quote 7.93)'),
+  stainlessDensityGPerCm3: k(8.0, 'g/cm³', 'density of AISI 304 stainless spoke wire', 'AISI 304 material data sheet (suppliers also quote 7.93)'),
   nipple14gMassG: k(1.0, 'g', 'mass of one 12 mm brass nipple for a 14-gauge spoke (scaled by wire area for others)', 'from memory'),
 
   // Weight and shipping
@@ -96,4 +96,4 @@ export const IGH3_RATIOS = [
 ] as const;
 
 /** Handbook range of tire width ÷ rim width; wide cruiser rims often run outside it. */
-export const TIRE_TO_RIM_WIDTH_RULE = { min: 1.45, max: 2 } as const; // Sheldon Brown "Tire Sizing"
+export const TIRE_TO_RIM_WIDTH_RULE = { min: 1.45, max: 2 } as const; // cycling handbook "Tire Sizing"

@@ -1,6 +1,6 @@
 import { WheelInputError } from './errors';
 
-/** ISO 5775 bead seat diameters for decimal-inch nominal sizes. Source: ISO 5775 via ETRTO tables; Sheldon Brown "Tire Sizing". */
+/** ISO 5775 bead seat diameters for decimal-inch nominal sizes. Source: ISO 5775 via ETRTO tables (Wikipedia); cycling handbook "Tire Sizing". */
 export const BSD_BY_NOMINAL_IN = {
   16: 305,
   20: 406,

@@ -14,7 +14,7 @@ import {
 import { SWG_MM, swgToMm } from './standards';
 import { G_PER_LB, mmToIn } from './units';
 
-/** Mass of a plain stainless spoke: wire volume × density (ASM/MatWeb AISI 304, 8.00 g/cm³). Head and bend ignored. */
+/** Mass of a plain stainless spoke: wire volume × density (AISI 304 material data sheet, 8.00 g/cm³). Head and bend ignored. */
 export function spokeMassG({ lengthMm, gauge }: { lengthMm: number; gauge: number }): number {
   requireFinite('lengthMm', lengthMm, 0, 2000);
   const d = swgToMm(gauge);

@@ -19,7 +19,7 @@ import {
 
 describe('ISO 5775 bead seat diameters', () => {
   it.each([
-    [16, 305], // ISO 5775, via Wikipedia "European Tyre and Rim Technical Organisation"; Sheldon Brown "Tire Sizing"
+    [16, 305], // ISO 5775, via Wikipedia "European Tyre and Rim Technical Organisation"; cycling handbook "Tire Sizing"
     [20, 406], // same sources
     [24, 507], // same sources
     [26, 559], // same sources (decimal-inch 26)
@@ -30,14 +30,14 @@ describe('ISO 5775 bead seat diameters', () => {
   });
 
   it('knows the trade names of the two largest', () => {
-    expect(bsdForNominal('650B')).toBe(584); // ISO 5775 / Sheldon Brown "Tire Sizing"
-    expect(bsdForNominal('700C')).toBe(622); // ISO 5775 / Sheldon Brown "Tire Sizing"
+    expect(bsdForNominal('650B')).toBe(584); // ISO 5775 / cycling handbook "Tire Sizing"
+    expect(bsdForNominal('700C')).toBe(622); // ISO 5775 / cycling handbook "Tire Sizing"
   });
 });
 
 describe('Standard Wire Gauge (BS 3737:1964, withdrawn)', () => {
   it.each([
-    [8, 4.064, 0.16], // Wikipedia "Standard wire gauge"; Engineering ToolBox "SWG"
+    [8, 4.064, 0.16], // Wikipedia "Standard wire gauge"
     [9, 3.658, 0.144], // same sources
     [10, 3.251, 0.128], // same sources
     [11, 2.946, 0.116], // same sources
@@ -101,9 +101,9 @@ describe('Dimensional weight (a large US carrier’s published rule)', () => {
   });
 });
 
-describe('Stainless spoke mass (ASM/MatWeb AISI 304 data sheet)', () => {
+describe('Stainless spoke mass (AISI 304 material data sheet)', () => {
   it('uses 8.00 g/cm³', () => {
-    expect(STAINLESS_DENSITY_G_PER_CM3).toBe(8.0); // ASM/MatWeb AISI 304
+    expect(STAINLESS_DENSITY_G_PER_CM3).toBe(8.0); // AISI 304 material data sheet
   });
 
   it('a 300 mm 14-gauge spoke weighs about 7.78 g', () => {
@@ -114,14 +114,14 @@ describe('Stainless spoke mass (ASM/MatWeb AISI 304 data sheet)', () => {
 
 describe('Frame and drivetrain figures from the crib sheets', () => {
   it('front hub OLD is 100 mm', () => {
-    expect(hubById('front-100').oldMm).toBe(100); // Sheldon Brown "spacing crib sheet"
+    expect(hubById('front-100').oldMm).toBe(100); // cycling handbook "spacing crib sheet"
   });
 
   it('coaster-brake and 3-speed hubs carry the published chainlines', () => {
-    expect(hubById('rear-igh3-coaster-120').chainlineMm).toBe(42); // Sheldon Brown "Single-speed chainline": 42 on 120 mm OLD ⚠
+    expect(hubById('rear-igh3-coaster-120').chainlineMm).toBe(42); // cycling handbook "Single-speed chainline": 42 on 120 mm OLD ⚠
     expect(hubById('rear-coaster-110').chainlineMm).toBeGreaterThanOrEqual(40.5); // same source: 40.5 to 42 ⚠
     expect(hubById('rear-coaster-110').chainlineMm).toBeLessThanOrEqual(42);
-    expect(hubById('rear-coaster-110').oldMm).toBe(110); // Sheldon Brown "spacing crib sheet": coaster-brake 110
+    expect(hubById('rear-coaster-110').oldMm).toBe(110); // cycling handbook "spacing crib sheet": coaster-brake 110
   });
 
   it('tire outer diameter is BSD plus twice the section', () => {
