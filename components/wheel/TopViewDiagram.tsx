@@ -12,11 +12,14 @@ export function TopViewDiagram({ view, unit }: { view: TopView; unit: LengthUnit
   const height = 300;
   const maxX = Math.max(view.chainringXMm, view.cogXMm, view.tireHalfWidthMm) + 30;
   const sx = (xMm: number) => width / 2 + (xMm / maxX) * (width / 2 - 10);
-  const minY = -view.tireOuterRadiusMm;
-  const maxY = view.chainstayLengthMm + 40;
+  const minY = -view.tireOuterRadiusMm - 10;
+  const maxY = view.chainstayLengthMm + view.chainringPitchRadiusMm + 10;
   const sy = (yMm: number) => height - 10 - ((yMm - minY) / (maxY - minY)) * (height - 20);
-  const outlineRight = view.wheelOutline.map((p) => `${sx(p.halfWidthMm).toFixed(1)},${sy(p.yMm).toFixed(1)}`);
-  const outlineLeft = [...view.wheelOutline].reverse().map((p) => `${sx(-p.halfWidthMm).toFixed(1)},${sy(p.yMm).toFixed(1)}`);
+  // The outline is given ahead of the axle; the tire is the same behind it.
+  const ahead = view.wheelOutline;
+  const fullSide = [...[...ahead].reverse().map((p) => ({ y: -p.yMm, w: p.halfWidthMm })), ...ahead.map((p) => ({ y: p.yMm, w: p.halfWidthMm }))];
+  const outlineRight = fullSide.map((p) => `${sx(p.w).toFixed(1)},${sy(p.y).toFixed(1)}`);
+  const outlineLeft = [...fullSide].reverse().map((p) => `${sx(-p.w).toFixed(1)},${sy(p.y).toFixed(1)}`);
   const clear = view.clearanceMm;
   const tone = clear === null ? '#5a6474' : clear < 0 ? '#b4441f' : clear < 3 ? '#c18a0f' : '#4a7a2f';
   return (
@@ -37,7 +40,14 @@ export function TopViewDiagram({ view, unit }: { view: TopView; unit: LengthUnit
           strokeWidth="4"
         />
         {/* the chain's inner edge along the stay */}
-        <polyline points={view.chainProfile.map((p) => `${sx(p.chainXMm - view.chainHalfWidthMm).toFixed(1)},${sy(p.yMm).toFixed(1)}`).join(' ')} fill="none" stroke="#0f5d5c" strokeWidth="2.5" />
+        <line
+          x1={sx(view.cogXMm - view.chainHalfWidthMm)}
+          y1={sy(0)}
+          x2={sx(view.chainringXMm - view.chainHalfWidthMm)}
+          y2={sy(view.chainstayLengthMm)}
+          stroke="#0f5d5c"
+          strokeWidth="2.5"
+        />
         {view.closestYMm !== null && view.chainXAtClosestMm !== null && view.obstacleHalfWidthAtClosestMm !== null && (
           <g>
             <line
