@@ -15,6 +15,7 @@ import type {
   AccountLinkRecord,
   ApiObject,
   BalanceTransaction,
+  CollectionName,
   Charge,
   Customer,
   EventObject,
@@ -23,6 +24,7 @@ import type {
   PaymentMethod,
   Refund,
   State,
+  StateStore,
   Transfer,
   TransferReversal,
 } from './store';
@@ -99,18 +101,31 @@ export function formatMoney(amount: number, currency: string): string {
   return `${value} ${currency.toUpperCase()}`;
 }
 
+const COLLECTION_OF: Record<string, CollectionName> = {
+  customer: 'customers',
+  payment_intent: 'paymentIntents',
+  payment_method: 'paymentMethods',
+  charge: 'charges',
+  refund: 'refunds',
+  account: 'accounts',
+  transfer: 'transfers',
+  transfer_reversal: 'reversals',
+  balance_transaction: 'balanceTransactions',
+  event: 'events',
+};
+
 export class PaymentsCore {
-  state: State;
   baseUrl = '';
   /** Events created since the last commit, for the dispatcher. */
   private fresh: string[] = [];
-  dirty = false;
 
   constructor(
-    state: State,
+    readonly store: StateStore,
     readonly options: CoreOptions,
-  ) {
-    this.state = state;
+  ) {}
+
+  get state(): State {
+    return this.store.state;
   }
 
   takeFreshEvents(): string[] {
@@ -119,8 +134,13 @@ export class PaymentsCore {
     return out;
   }
 
-  private touch(): void {
-    this.dirty = true;
+  /** Records that these stored objects changed, so the next save writes them. */
+  private touch(...objects: ApiObject[]): void {
+    for (const o of objects) this.store.mark(COLLECTION_OF[o.object], o.id);
+  }
+
+  private mark(collection: CollectionName, key: string): void {
+    this.store.mark(collection, key);
   }
 
   // ---------------------------------------------------------------- rendering
@@ -285,7 +305,8 @@ export class PaymentsCore {
     this.state.events[event.id] = event;
     this.state.deliveries[event.id] = { event: event.id, status: 'pending', attempts: [] };
     this.fresh.push(event.id);
-    this.touch();
+    this.mark('events', event.id);
+    this.mark('deliveries', event.id);
     return event;
   }
 
@@ -374,7 +395,7 @@ export class PaymentsCore {
       test_clock: null,
     };
     this.state.customers[customer.id] = customer;
-    this.touch();
+    this.touch(customer);
     this.emit('customer.created', clone(customer), ctx);
     return clone(customer);
   }
@@ -396,7 +417,7 @@ export class PaymentsCore {
     if (p.has('description')) c.description = description ?? null;
     if (p.has('phone')) c.phone = phone ?? null;
     c.metadata = mergeMetadata(c.metadata, metadata);
-    this.touch();
+    this.touch(c);
     const previous = changedFields(before, c);
     if (previous) this.emit('customer.updated', clone(c), ctx, previous);
     return clone(c);
@@ -488,7 +509,8 @@ export class PaymentsCore {
       pi.payment_method = this.createPaymentMethod(testCard.card, testCard.pmId).id;
       pi.status = 'requires_confirmation';
     }
-    this.touch();
+    this.touch(pi);
+    if (returnUrl) this.mark('paymentIntentReturnUrls', id);
     this.emit('payment_intent.created', this.renderPaymentIntent(pi), ctx);
     if (confirm && testCard) return this.confirmWith(pi, ctx, 'api');
     return this.renderPaymentIntent(pi);
@@ -526,7 +548,7 @@ export class PaymentsCore {
     if (p.has('receipt_email')) pi.receipt_email = receiptEmail ?? null;
     if (customerId) pi.customer = customerId;
     pi.metadata = mergeMetadata(pi.metadata, metadata);
-    this.touch();
+    this.touch(pi);
     return this.renderPaymentIntent(pi);
   }
 
@@ -543,7 +565,7 @@ export class PaymentsCore {
     pi.status = 'canceled';
     pi.canceled_at = nowSeconds();
     pi.cancellation_reason = reason ?? null;
-    this.touch();
+    this.touch(pi);
     const rendered = this.renderPaymentIntent(pi);
     this.emit('payment_intent.canceled', rendered, ctx);
     return this.renderPaymentIntent(pi);
@@ -573,7 +595,8 @@ export class PaymentsCore {
         'payment_method',
       );
     }
-    this.touch();
+    this.touch(pi);
+    if (returnUrl) this.mark('paymentIntentReturnUrls', id);
     return this.confirmWith(pi, ctx, 'api');
   }
 
@@ -623,7 +646,8 @@ export class PaymentsCore {
     };
     this.state.paymentMethods[pm.id] = pm;
     this.state.paymentMethodCardNumbers[pm.id] = card.number;
-    this.touch();
+    this.touch(pm);
+    this.mark('paymentMethodCardNumbers', pm.id);
     return pm;
   }
 
@@ -644,7 +668,7 @@ export class PaymentsCore {
       this.succeedPayment(pi, pm, ctx);
     } else if (outcome.kind === 'authenticate') {
       pi.status = 'requires_action';
-      this.touch();
+      this.touch(pi);
       this.emit('payment_intent.requires_action', this.renderPaymentIntent(pi), ctx);
     } else {
       const charge = this.failPayment(pi, pm, outcome, ctx);
@@ -701,7 +725,7 @@ export class PaymentsCore {
     pi.latest_charge = charge.id;
     pi.payment_method = pm.id;
     pi.last_payment_error = null;
-    this.touch();
+    this.touch(charge, pi);
     this.emit('charge.succeeded', clone(charge), ctx);
     this.emit('payment_intent.succeeded', this.renderPaymentIntent(pi), ctx);
   }
@@ -743,7 +767,7 @@ export class PaymentsCore {
     pi.latest_charge = charge.id;
     pi.payment_method = null;
     pi.last_payment_error = error;
-    this.touch();
+    this.touch(charge, pi);
     this.emit('charge.failed', clone(charge), ctx);
     this.emit('payment_intent.payment_failed', this.renderPaymentIntent(pi), ctx);
     return charge;
@@ -824,7 +848,7 @@ export class PaymentsCore {
       );
     }
     pi.payment_method = this.createPaymentMethod(card).id;
-    this.touch();
+    this.touch(pi);
     return this.confirmWith(pi, ctx, 'page');
   }
 
@@ -850,7 +874,7 @@ export class PaymentsCore {
           'The provided payment method has failed authentication. Provide a new payment method to attempt to fulfill this PaymentIntent again.',
         payment_method: clone(pm),
       };
-      this.touch();
+      this.touch(pi);
       this.emit('payment_intent.payment_failed', this.renderPaymentIntent(pi), ctx);
     }
     return this.renderPaymentIntent(pi);
@@ -914,7 +938,7 @@ export class PaymentsCore {
       type: input.type,
     };
     this.state.balanceTransactions[txn.id] = txn;
-    this.touch();
+    this.touch(txn);
     return txn;
   }
 
@@ -952,8 +976,13 @@ export class PaymentsCore {
   /** Test control: every pending fund becomes available now. */
   settleBalance(): void {
     const now = nowSeconds();
-    for (const t of Object.values(this.state.balanceTransactions)) if (t.available_on > now) t.available_on = now;
-    this.touch();
+    for (const t of Object.values(this.state.balanceTransactions)) {
+      if (t.available_on > now) {
+        t.available_on = now;
+        this.touch(t);
+      }
+    }
+
   }
 
   retrieveBalanceTransaction(id: string): Json {
@@ -1047,7 +1076,7 @@ export class PaymentsCore {
     const previous = { amount_refunded: ch.amount_refunded, refunded: ch.refunded };
     ch.amount_refunded += refundAmount;
     ch.refunded = ch.amount_refunded === ch.amount;
-    this.touch();
+    this.touch(refund, ch);
     this.emit('refund.created', clone(refund), ctx);
     this.emit('charge.refunded', clone(ch), ctx, previous);
     return clone(refund);
@@ -1123,7 +1152,7 @@ export class PaymentsCore {
       type,
     };
     this.state.accounts[acct.id] = acct;
-    this.touch();
+    this.touch(acct);
     return this.renderAccount(acct);
   }
 
@@ -1150,7 +1179,7 @@ export class PaymentsCore {
       if (requested && !acct.capabilities[name]) acct.capabilities[name] = acct.details_submitted ? 'active' : 'inactive';
       if (requested === false) delete acct.capabilities[name];
     }
-    this.touch();
+    this.touch(acct);
     const after = this.renderAccount(acct);
     const previous = changedFields(before, after);
     if (previous) this.emit('account.updated', after, ctx, previous, acct.id);
@@ -1169,7 +1198,7 @@ export class PaymentsCore {
     if (acct.tos_acceptance.date === null) {
       acct.tos_acceptance = { date: nowSeconds(), ip: '127.0.0.1', user_agent: 'Lacewright test payments' };
     }
-    this.touch();
+    this.touch(acct);
     const after = this.renderAccount(acct);
     const previous = changedFields(before, after);
     if (previous) this.emit('account.updated', after, ctx, previous, acct.id);
@@ -1197,15 +1226,18 @@ export class PaymentsCore {
       completed: false,
     };
     this.state.accountLinks[link.token] = link;
-    this.touch();
+    this.mark('accountLinks', link.token);
     return { object: 'account_link', created, expires_at: link.expires_at, url: `${this.baseUrl}/onboarding/${link.token}` };
   }
 
   /** Test control: every open onboarding link expires now. */
   expireAccountLinks(): void {
     const now = nowSeconds();
-    for (const link of Object.values(this.state.accountLinks)) link.expires_at = Math.min(link.expires_at, now - 1);
-    this.touch();
+    for (const link of Object.values(this.state.accountLinks)) {
+      link.expires_at = Math.min(link.expires_at, now - 1);
+      this.mark('accountLinks', link.token);
+    }
+
   }
 
   // ---------------------------------------------------------------- transfers
@@ -1308,7 +1340,7 @@ export class PaymentsCore {
       transfer_group: transferGroup,
     };
     this.state.transfers[id] = transfer;
-    this.touch();
+    this.touch(transfer);
     this.emit('transfer.created', this.renderTransfer(transfer), ctx);
     return this.renderTransfer(transfer);
   }
@@ -1324,7 +1356,7 @@ export class PaymentsCore {
     const before = this.renderTransfer(t);
     t.metadata = mergeMetadata(t.metadata, metadata);
     if (p.has('description')) t.description = description ?? null;
-    this.touch();
+    this.touch(t);
     const after = this.renderTransfer(t);
     const previous = changedFields(before, after);
     if (previous) this.emit('transfer.updated', after, ctx, previous);
@@ -1382,7 +1414,7 @@ export class PaymentsCore {
     const previous = { amount_reversed: t.amount_reversed, reversed: t.reversed };
     t.amount_reversed += reverseAmount;
     t.reversed = t.amount_reversed === t.amount;
-    this.touch();
+    this.touch(reversal, t);
     this.emit('transfer.reversed', this.renderTransfer(t), ctx, previous);
     return clone(reversal);
   }

@@ -36,7 +36,9 @@
  *   or another endpoint gives 400 `idempotency_error`; parameter errors (missing, malformed,
  *   unknown referenced id) are not kept, so a corrected retry with the same key works.
  *
- * State lives in `dataFile` (JSON, rewritten through a temporary file and a rename after each change).
+ * State lives in `dataFile`: a JSON snapshot (replaced through a temporary file and a rename) plus
+ *   `<dataFile>.log`, one appended line per request that changed something, written before the
+ *   answer goes out; the log is folded into the snapshot on start, on close and when it grows.
  *
  * Test controls (no key needed, JSON or form bodies, JSON answers):
  *   POST /_test/payment_intents/:id/pay            { card, exp_month?, exp_year?, cvc?, name? } → payment intent
@@ -65,7 +67,7 @@ import { createHash } from 'node:crypto';
 import { ApiError, type ErrorBody } from './errors';
 import { nowSeconds, randomToken } from './ids';
 import { normalizeJson, parseFormBody, Params, type ParamObject } from './params';
-import { emptyState, loadState, saveState } from './store';
+import { StateStore } from './store';
 import { FAKE_API_VERSION, PaymentsCore, type RequestContext, NO_REQUEST, formatMoney } from './core';
 import { DEFAULT_RETRY_DELAYS_MS, WebhookDispatcher } from './webhooks';
 import { expiryInPast, findTestCard, luhnValid, normalizeCardNumber, parseExpiry } from './cards';
@@ -161,21 +163,33 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
   if (options.webhookUrl && !options.webhookSecret) {
     throw new Error('payments fake: webhookSecret is required when webhookUrl is set');
   }
-  const core = new PaymentsCore(loadState(dataFile), {
+  const store = new StateStore(dataFile);
+  const core = new PaymentsCore(store, {
     fundsAvailableAfterSeconds: options.fundsAvailableAfterSeconds ?? 0,
     accountLinkTtlSeconds: options.accountLinkTtlSeconds ?? 300,
   });
+  let laterTimer: NodeJS.Timeout | undefined;
   const persist = () => {
-    core.dirty = false;
-    saveState(dataFile, core.state);
+    if (laterTimer) clearTimeout(laterTimer);
+    laterTimer = undefined;
+    store.save();
+  };
+  // Delivery bookkeeping is saved a moment later, folded into one write: losing it in a crash
+  // only means an event is sent again, which receivers must handle anyway.
+  let stopped = false;
+  const deliveryChanged = (eventId: string) => {
+    if (stopped) return;
+    store.mark('deliveries', eventId);
+    laterTimer ??= setTimeout(persist, 200);
+    laterTimer.unref();
   };
   const dispatcher = new WebhookDispatcher({
     url: options.webhookUrl,
     secret: options.webhookSecret,
     retryDelaysMs: options.webhookRetryDelaysMs ?? DEFAULT_RETRY_DELAYS_MS,
     timeoutMs: options.webhookTimeoutMs ?? 10_000,
-    getState: () => core.state,
-    persist,
+    getState: () => store.state,
+    changed: deliveryChanged,
   });
   const failNext = { remaining: 0, status: 500, mode: 'error' as 'error' | 'disconnect' };
   const log = options.log;
@@ -183,7 +197,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
   /** Save what changed, then hand new events to the dispatcher (sending starts after this returns). */
   const commit = () => {
     for (const id of core.takeFreshEvents()) dispatcher.enqueue(id);
-    if (core.dirty) persist();
+    if (store.dirty) persist();
   };
 
   // ------------------------------------------------------------------ API routes
@@ -305,7 +319,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
       for (const [k, rec] of Object.entries(core.state.idempotency)) {
         if (rec.created < cutoff) {
           delete core.state.idempotency[k];
-          core.dirty = true;
+          store.mark('idempotency', k);
         }
       }
       const saved = core.state.idempotency[key];
@@ -328,7 +342,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     const remember = (status: number, text: string) => {
       if (!key) return;
       core.state.idempotency[key] = { method, path: url.pathname, fingerprint, status, body: text, created: nowSeconds() };
-      core.dirty = true;
+      store.mark('idempotency', key);
     };
 
     if (failNext.remaining > 0) {
@@ -470,9 +484,10 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
         return reply(200, { ...failNext });
       }
       if (method === 'POST' && path === '/_test/reset') {
-        core.state = emptyState();
+        if (laterTimer) clearTimeout(laterTimer);
+        laterTimer = undefined;
+        store.reset();
         core.takeFreshEvents();
-        persist();
         return reply(200, { ok: true });
       }
       return reply(404, { error: { type: 'invalid_request_error', message: `No test control at ${method} ${path}.` } });
@@ -571,7 +586,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     if (after.status === 'requires_action') return redirect(res, `${pageUrl}/authenticate${query}`);
     const declined = (after.last_payment_error as { message?: string } | null)?.message ?? 'The card was declined.';
     if (returnUrl) return redirect(res, returnTo(returnUrl, piId, 'failed'));
-    return again(`The card was declined: ${declined} Try another card.`);
+    return again(`${declined} Try another card.`);
   }
 
   function handleOnboarding(req: http.IncomingMessage, res: http.ServerResponse, url: URL, body: string): void {
@@ -585,7 +600,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
         return redirect(res, link.refresh_url);
       }
       link.opened_session = randomToken(24);
-      core.dirty = true;
+      store.mark('accountLinks', token);
       commit();
       return html(
         res,
@@ -604,7 +619,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
       return redirect(res, link.refresh_url);
     }
     link.completed = true;
-    core.dirty = true;
+    store.mark('accountLinks', token);
     if (form.get('choice') === 'complete') core.completeOnboarding(link.account);
     commit();
     return redirect(res, link.return_url);
@@ -658,7 +673,9 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     close() {
       closing ??= new Promise<void>((resolve) => {
         dispatcher.close();
-        if (core.dirty) persist();
+        stopped = true;
+        persist();
+        store.compact();
         server.close(() => resolve());
         server.closeAllConnections();
       });

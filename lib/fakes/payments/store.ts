@@ -1,6 +1,6 @@
-// The fake's whole state, kept as plain JSON and written atomically after each change
-// so the fake keeps its objects across its own restarts.
-import { mkdirSync, readFileSync, renameSync, writeFileSync, existsSync, rmSync } from 'node:fs';
+// The fake's whole state, kept as plain JSON on disk so the fake keeps its objects across
+// its own restarts.
+import { appendFileSync, existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { randomToken } from './ids';
 
@@ -243,30 +243,125 @@ export function emptyState(): State {
   };
 }
 
-export function loadState(dataFile: string | undefined): State {
-  if (!dataFile || !existsSync(dataFile)) return emptyState();
-  const text = readFileSync(dataFile, 'utf8');
-  let parsed: Partial<State>;
-  try {
-    parsed = JSON.parse(text) as Partial<State>;
-  } catch (err) {
-    throw new Error(`payments fake: cannot parse its data file ${dataFile}: ${(err as Error).message}`);
-  }
-  if (parsed.version !== 1) throw new Error(`payments fake: unknown data file version in ${dataFile}`);
-  // Collections added later start empty when an older file is loaded.
-  return { ...emptyState(), ...parsed };
-}
+export type CollectionName = Exclude<keyof State, 'version'>;
 
-/** Write to a temporary file beside the target, then rename over it: a crash never leaves half a file. */
-export function saveState(dataFile: string | undefined, state: State): void {
-  if (!dataFile) return;
-  mkdirSync(path.dirname(dataFile), { recursive: true });
-  const tmp = `${dataFile}.${process.pid}.${randomToken(8)}.tmp`;
-  try {
-    writeFileSync(tmp, JSON.stringify(state));
-    renameSync(tmp, dataFile);
-  } catch (err) {
-    rmSync(tmp, { force: true });
-    throw err;
+type Change = [CollectionName, string, unknown];
+
+/**
+ * Keeps the state on disk as a snapshot (`dataFile`, replaced through a temporary file and a
+ * rename) plus a journal (`dataFile.log`) with one line per saved change set, so each save
+ * costs the size of what changed rather than of everything. The journal is folded into a new
+ * snapshot on start, on close and whenever it grows large. A line cut short by a crash is
+ * ignored, so each change set is all or nothing.
+ */
+export class StateStore {
+  state: State;
+  private readonly marked = new Map<CollectionName, Set<string>>();
+  private journalBytes = 0;
+  private snapshotBytes = 0;
+
+  constructor(
+    readonly dataFile: string | undefined,
+    private readonly compactAfterBytes = 4_000_000,
+  ) {
+    this.state = this.load();
+    this.compact();
+  }
+
+  private get journalFile(): string | undefined {
+    return this.dataFile ? `${this.dataFile}.log` : undefined;
+  }
+
+  get dirty(): boolean {
+    return this.marked.size > 0;
+  }
+
+  mark(collection: CollectionName, key: string): void {
+    let keys = this.marked.get(collection);
+    if (!keys) {
+      keys = new Set();
+      this.marked.set(collection, keys);
+    }
+    keys.add(key);
+  }
+
+  /** Appends everything marked since the last save as one journal line. */
+  save(): void {
+    if (!this.dirty) return;
+    const changes: Change[] = [];
+    for (const [collection, keys] of this.marked) {
+      const table = this.state[collection] as Record<string, unknown>;
+      for (const key of keys) changes.push([collection, key, table[key] ?? null]);
+    }
+    this.marked.clear();
+    if (!this.dataFile) return;
+    const line = `${JSON.stringify({ c: changes })}\n`;
+    mkdirSync(path.dirname(this.dataFile), { recursive: true });
+    appendFileSync(this.journalFile!, line);
+    this.journalBytes += Buffer.byteLength(line);
+    // Folding in when the journal outgrows the snapshot keeps the cost per save constant on average.
+    if (this.journalBytes > Math.max(this.compactAfterBytes, this.snapshotBytes)) this.compact();
+  }
+
+  /** Writes the whole state as the new snapshot, then drops the journal it now contains. */
+  compact(): void {
+    this.marked.clear();
+    if (!this.dataFile) return;
+    mkdirSync(path.dirname(this.dataFile), { recursive: true });
+    const tmp = `${this.dataFile}.${process.pid}.${randomToken(8)}.tmp`;
+    try {
+      const text = JSON.stringify(this.state);
+      writeFileSync(tmp, text);
+      renameSync(tmp, this.dataFile);
+      this.snapshotBytes = text.length;
+    } catch (err) {
+      rmSync(tmp, { force: true });
+      throw err;
+    }
+    // Replaying a journal over a snapshot that already holds it is harmless, so a crash here loses nothing.
+    rmSync(this.journalFile!, { force: true });
+    this.journalBytes = 0;
+  }
+
+  /** Starts over with an empty state (the reset control). */
+  reset(): void {
+    this.state = emptyState();
+    this.compact();
+  }
+
+  private load(): State {
+    const file = this.dataFile;
+    if (!file) return emptyState();
+    let state = emptyState();
+    if (existsSync(file)) {
+      let parsed: Partial<State>;
+      try {
+        parsed = JSON.parse(readFileSync(file, 'utf8')) as Partial<State>;
+      } catch (err) {
+        throw new Error(`payments fake: cannot parse its data file ${file}: ${(err as Error).message}`);
+      }
+      if (parsed.version !== 1) throw new Error(`payments fake: unknown data file version in ${file}`);
+      // Collections added later start empty when an older file is loaded.
+      state = { ...emptyState(), ...parsed };
+    }
+    const journal = this.journalFile!;
+    if (existsSync(journal)) {
+      for (const line of readFileSync(journal, 'utf8').split('\n')) {
+        if (!line.trim()) continue;
+        let entry: { c: Change[] };
+        try {
+          entry = JSON.parse(line) as { c: Change[] };
+        } catch {
+          break; // the last save was cut short
+        }
+        for (const [collection, key, value] of entry.c) {
+          const table = state[collection] as Record<string, unknown> | undefined;
+          if (!table) continue;
+          if (value === null) delete table[key];
+          else table[key] = value;
+        }
+      }
+    }
+    return state;
   }
 }

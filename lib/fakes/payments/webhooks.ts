@@ -28,7 +28,8 @@ interface DispatcherOptions {
   retryDelaysMs: number[];
   timeoutMs: number;
   getState: () => State;
-  persist: () => void;
+  /** A delivery record changed and should be saved. */
+  changed: (eventId: string) => void;
 }
 
 const MAX_ATTEMPTS_KEPT = 25;
@@ -61,6 +62,7 @@ export class WebhookDispatcher {
   /** Called once for each new event, after the state holding it has been saved. */
   enqueue(eventId: string): void {
     const rec = this.record(eventId);
+    this.opts.changed(eventId);
     if (!this.url) {
       rec.status = 'no_endpoint';
       return;
@@ -86,7 +88,7 @@ export class WebhookDispatcher {
     if (this.closed) return this.result(eventId, null, 'closed');
     if (this.paused && kind !== 'flush') {
       rec.status = 'held';
-      this.opts.persist();
+      this.opts.changed(eventId);
       return this.result(eventId, null, 'held');
     }
     const outcome = await this.send(eventId, kind);
@@ -99,7 +101,7 @@ export class WebhookDispatcher {
     } else {
       rec.status = 'failed';
     }
-    this.opts.persist();
+    this.opts.changed(eventId);
     return outcome;
   }
 
@@ -208,7 +210,7 @@ export class WebhookDispatcher {
     const outcome = await this.send(eventId, 'resend');
     const rec = this.record(eventId);
     if (outcome.status !== null && outcome.status >= 200 && outcome.status < 300) rec.status = 'delivered';
-    this.opts.persist();
+    this.opts.changed(eventId);
     return outcome;
   }
 

@@ -1,5 +1,7 @@
 // The fake keeps its objects, keys and unfinished deliveries across its own restarts.
-import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { appendFileSync, copyFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
 import { closedPort, paidIntent, startFake, startReceiver, WEBHOOK_SECRET, type FakeHandle } from './helpers';
 
@@ -43,8 +45,26 @@ describe('payments fake: state across restarts', () => {
     );
     expect(replay.id).toBe(transfer.id);
     expect((await h.stripe.transfers.list({ destination: acct.id })).data).toHaveLength(1);
-    // Only the data file remains beside it: every write went through a renamed temporary file.
+    // After a clean restart the journal is folded in and no temporary file is left behind.
     expect(readdirSync(h.dir)).toEqual(['state.json']);
+  });
+
+  it('recovers from a crash: the journal is replayed and a line cut short is ignored', async () => {
+    const h = await started();
+    const customer = await h.stripe.customers.create({ email: 'before-crash@example.test' });
+    const pi = await h.stripe.paymentIntents.create({ amount: 6_000, currency: 'usd', customer: customer.id });
+    // Copy the files as they are while it runs, as if the process had died here mid-write.
+    const crashDir = mkdtempSync(path.join(tmpdir(), 'payments-fake-crash-'));
+    cleanups.push(async () => rmSync(crashDir, { recursive: true, force: true }));
+    const crashFile = path.join(crashDir, 'state.json');
+    copyFileSync(h.dataFile, crashFile);
+    copyFileSync(`${h.dataFile}.log`, `${crashFile}.log`);
+    appendFileSync(`${crashFile}.log`, '{"c":[["customers","cus_half",{"id":"cus_ha');
+
+    const revived = await started({ dataFile: crashFile });
+    expect((await revived.stripe.customers.retrieve(customer.id)).email).toBe('before-crash@example.test');
+    expect((await revived.stripe.paymentIntents.retrieve(pi.id)).amount).toBe(6_000);
+    expect((await revived.stripe.customers.list({ limit: 100 })).data.map((c) => c.id)).toEqual([customer.id]);
   });
 
   it('sends deliveries left unfinished once it is back', async () => {
