@@ -1,0 +1,26 @@
+// One tick of the background worker: time-driven market moves first, then the mail they caused.
+import type { Knex } from 'knex';
+import { deliverDueMail, type DeliveryReport, type MailSender } from '@/lib/mail/outbox';
+import { expireDueBids, expireDueRequests, warnExpiringRequests } from '@/lib/market/expiry';
+
+export interface TickReport {
+  bidsExpired: number;
+  requestsExpired: number;
+  requestsWarned: number;
+  mail: DeliveryReport;
+}
+
+export interface TickOptions {
+  now?: Date;
+  /** Defaults to the app's SMTP transport. */
+  send?: MailSender;
+}
+
+export async function runWorkerTick(db: Knex, options: TickOptions = {}): Promise<TickReport> {
+  const now = options.now ?? new Date();
+  const bidsExpired = await expireDueBids(db, now);
+  const requestsExpired = await expireDueRequests(db, now);
+  const requestsWarned = await warnExpiringRequests(db, now);
+  const mail = await deliverDueMail(db, { send: options.send, now: options.now });
+  return { bidsExpired, requestsExpired, requestsWarned, mail };
+}
