@@ -29,7 +29,7 @@ const raw = Object.fromEntries(Object.entries(process.env).filter(([, v]) => v !
 const parsed = Env.safeParse(raw);
 if (!parsed.success) {
   console.error('payments fake: bad environment');
-  for (const issue of parsed.error.issues) console.error(`  ${issue.path.join('.')}: ${issue.message}`);
+  for (const problem of parsed.error.issues) console.error(`  ${problem.path.join('.')}: ${problem.message}`);
   process.exit(1);
 }
 const env = parsed.data;
