@@ -1,4 +1,6 @@
-import { Card } from '@/components/ui/Card';
+import { BoardTable } from '@/components/market/builder/BoardTable';
+import { QueryProvider } from '@/components/providers/QueryProvider';
+import { ButtonLink } from '@/components/ui/Button';
 import { PageHeading } from '@/components/ui/PageHeading';
 import { requirePageUser } from '@/lib/auth/guard';
 import { db } from '@/lib/db';
@@ -11,11 +13,20 @@ export default async function BuilderBoardPage() {
   const shop = user.shopId ? await getShop(db, user.shopId) : null;
   return (
     <>
-      <PageHeading title="Open requests" lead={shop ? `${shop.name}, ${shop.city}, ${shop.region}` : 'Your account is not linked to a shop yet.'} />
-      <Card className="text-center">
-        <p className="text-lg font-semibold">No open requests match your shop right now</p>
-        <p className="mt-1 text-ink-500">When riders post wheel requests that your shop can build, they show up here.</p>
-      </Card>
+      <PageHeading
+        title="Open requests"
+        lead={
+          shop
+            ? `Wheel requests riders have published, seen from ${shop.name} in ${shop.city}, ${shop.region}. Open one to read the full spec and bid.`
+            : 'Your account is not linked to a shop yet.'
+        }
+        actions={shop ? <ButtonLink href="/shop/settings" tone="secondary">What your shop builds</ButtonLink> : undefined}
+      />
+      {shop && (
+        <QueryProvider>
+          <BoardTable />
+        </QueryProvider>
+      )}
     </>
   );
 }
