@@ -24,6 +24,8 @@ export interface MessageThreadProps {
   title?: string;
   /** How often to look for new messages, in milliseconds. */
   pollMs?: number;
+  /** An id for the section, so other pages can link straight to the thread. */
+  id?: string;
 }
 
 type MessageValues = z.input<typeof messageInputSchema>;
@@ -38,7 +40,7 @@ function sideLabel(message: MessageView, viewerSide: MessageThreadProps['viewerS
   return message.authorSide === 'shop' ? `${message.authorName}, ${shopName}` : `${message.authorName} (rider)`;
 }
 
-export function MessageThread({ requestId, shopId, viewerSide, title = 'Messages', pollMs = 10_000 }: MessageThreadProps) {
+export function MessageThread({ requestId, shopId, viewerSide, title = 'Messages', pollMs = 10_000, id }: MessageThreadProps) {
   const client = useQueryClient();
   const key = threadKey(requestId, shopId);
   const url = `/api/requests/${requestId}/threads/${shopId}/messages`;
@@ -95,7 +97,7 @@ export function MessageThread({ requestId, shopId, viewerSide, title = 'Messages
   const canPost = thread.data?.canPost === true && viewerSide !== 'admin';
 
   return (
-    <section aria-labelledby={headingId} className="rounded-lg border border-chalk-200 bg-white shadow-card" data-testid="message-thread">
+    <section id={id} aria-labelledby={headingId} className="scroll-mt-4 rounded-lg border border-chalk-200 bg-white shadow-card" data-testid="message-thread">
       <div className="flex flex-wrap items-center justify-between gap-2 border-b border-chalk-200 px-5 py-3">
         <h2 id={headingId} className="text-xl font-bold">
           {title}

@@ -37,7 +37,7 @@ export function BuilderRequestClient({
         </div>
         <div className="space-y-6">
           <BidPanel request={request} labourRateCentsPerHour={labourRateCentsPerHour} />
-          <MessageThread requestId={request.id} shopId={shopId} viewerSide="shop" title="Messages with the rider" />
+          <MessageThread requestId={request.id} shopId={shopId} viewerSide="shop" title="Messages with the rider" id="messages" />
         </div>
       </div>
     </div>
