@@ -20,7 +20,7 @@ export const roundMiles = (miles: number): number => Math.round(miles * 10) / 10
 /** Haversine distance in miles from a fixed point to a row's latitude/longitude columns (same formula as milesBetween). */
 export function milesSql(db: Knex, from: Point, latColumn: string, lonColumn: string): Knex.Raw {
   return db.raw(
-    `(2 * ? * asin(least(1, sqrt(power(sin(radians(?? - ?) / 2), 2) + cos(radians(?)) * cos(radians(??)) * power(sin(radians(?? - ?) / 2), 2)))))`,
+    `(2 * ?::float8 * asin(least(1, sqrt(power(sin(radians(?? - ?::float8) / 2), 2) + cos(radians(?::float8)) * cos(radians(??)) * power(sin(radians(?? - ?::float8) / 2), 2)))))`,
     [EARTH_RADIUS_MILES, latColumn, from.latitude, from.latitude, latColumn, lonColumn, from.longitude],
   );
 }

@@ -1,7 +1,7 @@
 // Messages: one thread per request and shop, open to that rider, that shop's members and admins only.
 import type { Knex } from 'knex';
 import type { SessionUser } from '@/lib/auth/roles';
-import { Conflict, Forbidden, NotFound } from '@/lib/errors';
+import { Forbidden, NotFound } from '@/lib/errors';
 import { marketLinks, newMessageMail } from '@/lib/mail/notices';
 import { isOwner, isUuid, loadVisibleRequest, shopIsInvolved } from './access';
 import { notify, riderEmail, shopMemberEmails } from './notify';
@@ -41,14 +41,13 @@ export async function threadAccess(db: Knex, actor: SessionUser, requestId: stri
   const shop = await db('shops').where({ id: shopId }).first('id', 'name');
   if (!shop) throw new NotFound('Conversation not found.');
   if (actor.role === 'admin') return { request, shop, canPost: false };
-  const involved = await shopIsInvolved(db, shopId, request.id);
   if (isOwner(actor, request)) {
     // A rider writes to shops that bid or wrote first, never cold to any shop.
-    if (!involved) throw new NotFound('Conversation not found.');
+    if (!(await shopIsInvolved(db, shopId, request.id))) throw new NotFound('Conversation not found.');
     return { request, shop, canPost: true };
   }
-  // A builder: any open request, or one their shop already took part in.
-  return { request, shop, canPost: request.status === 'open' || involved };
+  // A builder reaches here only for an open request or one their shop already took part in.
+  return { request, shop, canPost: true };
 }
 
 /** Everything up to now (and up to the newest message, whatever the clocks say) counts as read. */
@@ -104,8 +103,7 @@ export async function listThreadMessages(db: Knex, actor: SessionUser, requestId
 /** Writes a message and queues a notice to the other side, in one transaction. */
 export async function postMessage(db: Knex, actor: SessionUser, requestId: string, shopId: string, body: string): Promise<MessageView> {
   const access = await threadAccess(db, actor, requestId, shopId);
-  if (actor.role === 'admin') throw new Forbidden('Admins read conversations but do not write in them.');
-  if (!access.canPost) throw new Conflict('This request is closed, so this conversation takes no new messages.');
+  if (!access.canPost) throw new Forbidden('Admins read conversations but do not write in them.');
   const { request } = access;
   const fromRider = isOwner(actor, request);
   return db.transaction(async (trx) => {

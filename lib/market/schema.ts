@@ -48,7 +48,8 @@ export const zipSchema = z
   .string({ error: 'Enter a 5-digit US ZIP code.' })
   .trim()
   .regex(/^\d{5}$/, { error: 'Enter a 5-digit US ZIP code.' })
-  .refine((zip) => lookupZip(zip) !== null, { error: 'We could not find that ZIP code.' });
+  // Only a well-formed ZIP is looked up, so a typo gets one message, not two.
+  .refine((zip) => !/^\d{5}$/.test(zip) || lookupZip(zip) !== null, { error: 'We could not find that ZIP code.' });
 
 export const lacingSchema = z.discriminatedUnion(
   'kind',
@@ -107,7 +108,11 @@ const requestFields = {
   zip: zipSchema,
   delivery: z.enum(['ship', 'pickup'], { error: 'Choose shipping or local pickup.' }),
   neededBy: z.iso.date({ error: 'Enter the needed-by date as YYYY-MM-DD.' }),
-  budgetCents: cents('Budget', MAX_BUDGET_CENTS).min(100, { error: 'Budget must be at least $1.' }),
+  budgetCents: z
+    .number({ error: 'Budget must be an amount in cents.' })
+    .int({ error: 'Budget must be whole cents.' })
+    .min(100, { error: 'Budget must be at least $1.' })
+    .max(MAX_BUDGET_CENTS, { error: `Budget must be at most $${(MAX_BUDGET_CENTS / 100).toLocaleString('en-US')}.` }),
   notes: z.string().trim().max(2000, { error: 'Keep the notes under 2000 characters.' }).default(''),
 };
 

@@ -1,11 +1,26 @@
 // Makers for market tests: each test creates its own people, shops and requests.
 import type { Knex } from 'knex';
+import { inject } from 'vitest';
 import { createAccount } from '@/lib/auth/accounts';
 import type { SessionUser } from '@/lib/auth/roles';
 import { createRequest } from '@/lib/market/createRequest';
 import { placeBid } from '@/lib/market/placeBid';
 import { bidInputSchema, requestInputSchema, type BidFormValues, type RequestFormValues } from '@/lib/market/schema';
-import { uniqueEmail } from '../../support/db';
+import { testDb, uniqueEmail } from '../../support/db';
+import { migrateLatest } from '../../../scripts/lib/database';
+import { databaseUrl, ensureDatabase } from '../../../scripts/lib/postgres';
+
+/**
+ * A freshly migrated database of the test's own, for tests whose worker ticks sweep every row
+ * (expiry, outbox) and so must not touch rows other test files are watching.
+ */
+export async function ownDatabase(name: string): Promise<Knex> {
+  const port = inject('clusterPort');
+  const database = `market_${name}_${Date.now().toString(36)}_${process.pid}`;
+  ensureDatabase({ dir: inject('clusterDir'), port }, database);
+  await migrateLatest(databaseUrl(port, database));
+  return testDb(databaseUrl(port, database));
+}
 
 const PASSWORD = 'a long test password';
 
