@@ -47,6 +47,7 @@ export async function startStack(o: StackOptions): Promise<Service[]> {
   services.push(startService('mail', bin('tsx'), [path.join(root, 'scripts/mail-catcher.ts')], env, { quiet: o.quiet }));
   await waitForHttp(`http://127.0.0.1:${o.ports.mailApi}/health`, 20_000);
   services.push(startService('app', bin('next'), ['start', '-p', String(o.ports.app)], { ...env, PORT: String(o.ports.app) }, { quiet: o.quiet }));
+  services.push(startService('worker', bin('tsx'), ['--conditions=react-server', path.join(root, 'scripts/worker.ts')], { ...env, WORKER_INTERVAL_MS: process.env.WORKER_INTERVAL_MS ?? '2000' }, { quiet: o.quiet }));
   await waitForHttp(`http://127.0.0.1:${o.ports.app}/api/health`, 60_000);
   return services;
 }
