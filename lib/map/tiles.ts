@@ -3,6 +3,7 @@ import { geoIdentity, geoPath } from 'd3-geo';
 import type { GeometryCollection, LineString, Polygon } from 'geojson';
 import sharp from 'sharp';
 import { loadAtlas, WORLD_PX, type Atlas, type AtlasDetail, type Shape } from './atlas';
+import { Invalid } from '@/lib/errors';
 import { MAP_COLORS } from './colors';
 import { worldUnitToLonLat } from './geo';
 import { kmPerWorldPx, LAND_BORDER_REACH_KM } from './land-border';
@@ -17,14 +18,11 @@ export const MAX_ZOOM = 10;
 export const DETAIL_ZOOM = 6;
 export const TILE_CACHE_ENTRIES = 2000;
 
-/** A tile address outside the XYZ grid or the zoom range the map serves. */
-export class InvalidTileError extends Error {
-  readonly code = 'invalid_tile';
-  constructor(message: string) {
-    super(message);
-    this.name = 'InvalidTileError';
-  }
-}
+/** How browsers and proxies may keep a tile: the drawing for an address does not change within a release. */
+export const TILE_CACHE_CONTROL = 'public, max-age=86400, immutable';
+
+/** A tile address outside the XYZ grid or the zoom range the map serves (a 400 through lib/http). */
+export class InvalidTileError extends Invalid {}
 
 export interface TileCoords {
   z: number;
@@ -184,6 +182,15 @@ export function getTile(z: number, x: number, y: number): Promise<RenderedTile> 
 /** A 256 × 256 PNG of XYZ tile z/x/y (Web Mercator, EPSG:3857). */
 export async function renderTile(z: number, x: number, y: number): Promise<Buffer> {
   return (await getTile(z, x, y)).png;
+}
+
+/** Does an If-None-Match header name this ETag (weak or strong, or `*`)? */
+export function etagMatches(ifNoneMatch: string | null, etag: string): boolean {
+  if (!ifNoneMatch) return false;
+  return ifNoneMatch.split(',').some((tag) => {
+    const t = tag.trim();
+    return t === '*' || t.replace(/^W\//, '') === etag;
+  });
 }
 
 /** Counts for tests and the benchmark. */
