@@ -110,7 +110,12 @@ const shiftLon = (ring: Position[], by: number): Position[] => ring.map(([lon, l
 function planarPolygons(rings: Position[][]): Shape<Polygon>[] {
   const unwrapped = rings.map(unwrapRing);
   let minLon = Infinity, maxLon = -Infinity;
-  for (const ring of unwrapped) for (const [lon] of ring) (minLon = Math.min(minLon, lon)), (maxLon = Math.max(maxLon, lon));
+  for (const ring of unwrapped) {
+    for (const [lon] of ring) {
+      minLon = Math.min(minLon, lon);
+      maxLon = Math.max(maxLon, lon);
+    }
+  }
   // A polygon pushed past ±180° by unwrapping also gets a copy on the other side of the world.
   const shifts = [0, ...(maxLon > 180 ? [-360] : []), ...(minLon < -180 ? [360] : [])];
   return shifts.map((by) => {
