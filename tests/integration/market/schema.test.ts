@@ -27,7 +27,7 @@ describe('the request schema', () => {
     const r = requestInputSchema.safeParse({
       ...requestValues(),
       title: '',
-      zip: '00000',
+      zip: '0000',
       delivery: 'drone',
       neededBy: daysFromNow(-3),
       budgetCents: -5,
@@ -37,7 +37,7 @@ describe('the request schema', () => {
     const issues = issuesByPath(r);
     expect(issues).toMatchObject({
       title: 'Give the request a title of at least 3 characters.',
-      zip: 'We could not find that ZIP code.',
+      zip: 'Enter a 5-digit US ZIP code.',
       delivery: 'Choose shipping or local pickup.',
       budgetCents: 'Budget must be at least $1.',
       'frame.rearSpacingMm': 'Frame rear spacing must be at least 100 mm.',
