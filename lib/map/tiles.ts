@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { geoIdentity, geoPath } from 'd3-geo';
 import type { GeometryCollection, LineString, Polygon } from 'geojson';
 import sharp from 'sharp';
-import { loadAtlas, WORLD_PX, type Atlas, type AtlasDetail, type Shape } from './atlas';
+import { loadAtlas, WORLD_PX, type Atlas, type AtlasDetail, type Bounds, type Shape } from './atlas';
 import { Invalid } from '@/lib/errors';
 import { MAP_COLORS } from './colors';
 import { worldUnitToLonLat } from './geo';
@@ -70,7 +70,7 @@ function strokeWidths(z: number): Strokes {
   return { county: 0.5 + 0.5 * t, state: 0.8 + 0.9 * t, country: 1.2 + 1.2 * t };
 }
 
-function intersecting<G extends Polygon | LineString>(shapes: Shape<G>[], box: [number, number, number, number]): G[] {
+function intersecting<G extends Polygon | LineString>(shapes: Shape<G>[], box: Bounds): G[] {
   const [x0, y0, x1, y1] = box;
   const hits: G[] = [];
   for (const { bounds, geometry } of shapes) {
@@ -79,27 +79,26 @@ function intersecting<G extends Polygon | LineString>(shapes: Shape<G>[], box: [
   return hits;
 }
 
-/** The SVG document for one tile; exported for inspection in tests. */
+/** The SVG document for one tile (exported so a tile's drawing can be inspected). */
 export function tileSvg(atlas: Atlas, z: number, x: number, y: number): string {
-  const n = 2 ** z;
-  const pxPerWorldPx = n; // zoom z is the zoom-0 world scaled by 2^z
-  const projection = geoIdentity()
-    .scale(pxPerWorldPx)
-    .translate([-x * TILE_SIZE_PX, -y * TILE_SIZE_PX])
-    .clipExtent([
-      [-CLIP_PAD_PX, -CLIP_PAD_PX],
-      [TILE_SIZE_PX + CLIP_PAD_PX, TILE_SIZE_PX + CLIP_PAD_PX],
-    ]);
-  const path = geoPath(projection).digits(1);
-
+  const n = 2 ** z; // zoom z is the zoom-0 world scaled by 2^z
   const tileWorld = WORLD_PX / n;
-  const pad = CLIP_PAD_PX / n;
-  const box: [number, number, number, number] = [x * tileWorld - pad, y * tileWorld - pad, (x + 1) * tileWorld + pad, (y + 1) * tileWorld + pad];
-  const d = (shapes: Shape<Polygon>[] | Shape<LineString>[]) => {
+
+  /** Path data for the shapes near this tile, clipped padPx beyond its edges. */
+  const d = (shapes: Shape<Polygon>[] | Shape<LineString>[], padPx = CLIP_PAD_PX) => {
+    const pad = padPx / n;
+    const box: Bounds = [x * tileWorld - pad, y * tileWorld - pad, (x + 1) * tileWorld + pad, (y + 1) * tileWorld + pad];
     const geometries = intersecting<Polygon | LineString>(shapes, box);
     if (geometries.length === 0) return '';
+    const projection = geoIdentity()
+      .scale(n)
+      .translate([-x * TILE_SIZE_PX, -y * TILE_SIZE_PX])
+      .clipExtent([
+        [-padPx, -padPx],
+        [TILE_SIZE_PX + padPx, TILE_SIZE_PX + padPx],
+      ]);
     const all: GeometryCollection = { type: 'GeometryCollection', geometries };
-    return path(all) ?? '';
+    return geoPath(projection).digits(1)(all) ?? '';
   };
 
   const w = strokeWidths(z);
@@ -116,10 +115,11 @@ export function tileSvg(atlas: Atlas, z: number, x: number, y: number): string {
   // Where the US meets Canada or Mexico on land the two sources' lines disagree by up to a
   // couple of km, leaving slivers of water or overlaps. Near those stretches, repaint each
   // side up to the world layer's border line, so the colour change sits under the line drawn.
-  const landBorders = d(atlas.usLandBorders);
+  const centre = worldUnitToLonLat((x + 0.5) / n, (y + 0.5) / n);
+  const reachPx = (LAND_BORDER_REACH_KM / kmPerWorldPx(centre.lat)) * n;
+  // A border just outside the tile still paints into it: select and clip with the reach added.
+  const landBorders = d(atlas.usLandBorders, CLIP_PAD_PX + reachPx);
   if (landBorders) {
-    const centre = worldUnitToLonLat((x + 0.5) / n, (y + 0.5) / n);
-    const reachPx = (LAND_BORDER_REACH_KM / kmPerWorldPx(centre.lat)) * n;
     const usWorld = d(atlas.usLandWorldLayer);
     layers.push(
       `<defs><clipPath id="us"><path d="${usWorld || 'M0,0'}" clip-rule="evenodd"/></clipPath>` +
