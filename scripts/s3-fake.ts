@@ -1,6 +1,7 @@
 // Runs the local S3-compatible store until interrupted (used by the start command and the browser tests).
 //   S3_FAKE_PORT (4569), S3_FAKE_HOST (127.0.0.1), S3_FAKE_DATA (.data/s3), S3_BUCKET (lacewright-uploads),
-//   S3_FAKE_ORIGINS (comma-separated browser origins; default: APP_URL and its loopback twin), S3_FAKE_QUIET=1.
+//   S3_FAKE_ORIGINS (comma-separated browser origins; default: APP_URL and its loopback twin),
+//   S3_FAKE_VERBOSE=1 to log every request (refused ones are always logged).
 import path from 'node:path';
 import { z } from 'zod';
 import { originsFor, startS3Fake } from '../lib/fakes/s3/server';
@@ -12,7 +13,7 @@ const Env = z.object({
   S3_BUCKET: z.string().regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, 'use a valid bucket name').default('lacewright-uploads'),
   APP_URL: z.url().default('http://localhost:3000'),
   S3_FAKE_ORIGINS: z.string().optional(),
-  S3_FAKE_QUIET: z.string().optional(),
+  S3_FAKE_VERBOSE: z.string().optional(),
 });
 
 // Empty variables count as unset.
@@ -32,7 +33,8 @@ const fake = await startS3Fake({
   directory,
   bucket: env.S3_BUCKET,
   allowedOrigins: origins,
-  log: env.S3_FAKE_QUIET ? undefined : (line) => console.log(line),
+  log: (line) => console.log(line),
+  logRequests: Boolean(env.S3_FAKE_VERBOSE),
 });
 console.log(`S3 fake listening on ${fake.url}, bucket "${fake.bucket}" (data: ${directory}; browser origins: ${origins.join(', ')})`);
 

@@ -8,6 +8,8 @@ export interface StackPorts {
   app: number;
   smtp: number;
   mailApi: number;
+  /** The S3 stand-in for photos; 4569 when not given. */
+  s3?: number;
 }
 
 export interface StackOptions {
@@ -21,6 +23,8 @@ export interface StackOptions {
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const bin = (name: string) => path.join(root, 'node_modules/.bin', name);
+
+const s3Port = (o: StackOptions) => o.ports.s3 ?? 4569;
 
 export function stackEnv(o: StackOptions): NodeJS.ProcessEnv {
   return {
@@ -36,6 +40,9 @@ export function stackEnv(o: StackOptions): NodeJS.ProcessEnv {
     MAIL_CATCHER_URL: `http://127.0.0.1:${o.ports.mailApi}`,
     MAIL_CATCHER_API_PORT: String(o.ports.mailApi),
     MAIL_CATCHER_DATA: path.join(o.dataDir, 'mail.jsonl'),
+    S3_ENDPOINT: `http://127.0.0.1:${s3Port(o)}`,
+    S3_FAKE_PORT: String(s3Port(o)),
+    S3_FAKE_DATA: path.join(o.dataDir, 's3'),
   };
 }
 
@@ -46,6 +53,9 @@ export async function startStack(o: StackOptions): Promise<Service[]> {
   const services: Service[] = [];
   services.push(startService('mail', bin('tsx'), [path.join(root, 'scripts/mail-catcher.ts')], env, { quiet: o.quiet }));
   await waitForHttp(`http://127.0.0.1:${o.ports.mailApi}/health`, 20_000);
+  // The photo store (bucket and CORS made at start); the app streams photos from it and browsers PUT to it.
+  services.push(startService('s3', bin('tsx'), [path.join(root, 'scripts/s3-fake.ts')], env, { quiet: o.quiet }));
+  await waitForHttp(`http://127.0.0.1:${s3Port(o)}/__fake/health`, 20_000);
   services.push(startService('app', bin('next'), ['start', '-p', String(o.ports.app)], { ...env, PORT: String(o.ports.app) }, { quiet: o.quiet }));
   services.push(startService('worker', bin('tsx'), ['--conditions=react-server', path.join(root, 'scripts/worker.ts')], { ...env, WORKER_INTERVAL_MS: process.env.WORKER_INTERVAL_MS ?? '2000' }, { quiet: o.quiet }));
   await waitForHttp(`http://127.0.0.1:${o.ports.app}/api/health`, 60_000);

@@ -25,7 +25,7 @@ export default async function setup(project: TestProject) {
   await migrateLatest(databaseUrl);
   await seedDemo(databaseUrl);
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lacewright-stack-'));
-  const ports = { app: await freePort(), smtp: await freePort(), mailApi: await freePort() };
+  const ports = { app: await freePort(), smtp: await freePort(), mailApi: await freePort(), s3: await freePort() };
   const appUrl = `http://127.0.0.1:${ports.app}`;
   try {
     await startStack({ databaseUrl, appUrl, authSecret: 'test-secret-for-the-browser-suite', dataDir, ports, quiet: true });

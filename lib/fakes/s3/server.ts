@@ -16,7 +16,9 @@ export interface S3FakeOptions {
   /** Origins allowed to PUT and GET from a browser (the app's own). */
   allowedOrigins: string[];
   credentials?: Credentials;
+  /** Refused requests are always reported here; every request too with `logRequests`. */
   log?: (line: string) => void;
+  logRequests?: boolean;
 }
 
 export interface S3Fake {
@@ -77,7 +79,7 @@ export async function startS3Fake(o: S3FakeOptions): Promise<S3Fake> {
         return;
       }
     }
-    if (o.log) res.on('finish', () => o.log?.(`${req.method} ${req.url?.split('?')[0]} ${res.statusCode}`));
+    if (o.log && o.logRequests) res.on('finish', () => o.log?.(`${req.method} ${req.url?.split('?')[0]} ${res.statusCode}`));
     handle(req, res);
   });
 
