@@ -2,11 +2,14 @@
 import type { Knex } from 'knex';
 import { deliverDueMail, type DeliveryReport, type MailSender } from '@/lib/mail/outbox';
 import { expireDueBids, expireDueRequests, warnExpiringRequests } from '@/lib/market/expiry';
+import { runPaymentsTick, type PaymentsTickReport } from '@/lib/payments/worker';
 
 export interface TickReport {
   bidsExpired: number;
   requestsExpired: number;
   requestsWarned: number;
+  /** Auto-confirmed receipts, retried payouts and refunds. */
+  payments: PaymentsTickReport;
   mail: DeliveryReport;
 }
 
@@ -21,6 +24,7 @@ export async function runWorkerTick(db: Knex, options: TickOptions = {}): Promis
   const bidsExpired = await expireDueBids(db, now);
   const requestsExpired = await expireDueRequests(db, now);
   const requestsWarned = await warnExpiringRequests(db, now);
+  const payments = await runPaymentsTick(db, { now });
   const mail = await deliverDueMail(db, { send: options.send, now: options.now });
-  return { bidsExpired, requestsExpired, requestsWarned, mail };
+  return { bidsExpired, requestsExpired, requestsWarned, payments, mail };
 }

@@ -104,3 +104,125 @@ export function bidExpiredMail(to: string, a: { requestId: string; requestTitle:
     label: 'Open the request',
   });
 }
+
+// ------------------------------------------------------------------ money notices (escrow, payouts, disputes)
+
+export const moneyLinks = {
+  job: (jobId: string) => `${env.APP_URL}/jobs/${jobId}`,
+  payouts: () => `${env.APP_URL}/payouts`,
+  adminDispute: (disputeId: string) => `${env.APP_URL}/admin/disputes/${disputeId}`,
+};
+
+const day = (d: Date) => d.toISOString().slice(0, 10);
+
+export function paymentReceivedMail(to: string, a: { jobId: string; title: string; priceCents: number; audience: 'rider' | 'builder' }): MailContent {
+  return a.audience === 'rider'
+    ? notice(
+        to,
+        `Payment received for “${a.title}”`,
+        'Your money is held in escrow',
+        [`We received your ${formatUsd(a.priceCents)} for “${a.title}”. It stays in escrow until you confirm you have the wheel.`, 'The builder can start now.'],
+        { url: moneyLinks.job(a.jobId), label: 'Open the job' },
+      )
+    : notice(
+        to,
+        `Paid: you can start “${a.title}”`,
+        'The rider paid into escrow',
+        [`The rider paid ${formatUsd(a.priceCents)} for “${a.title}”. It is held in escrow and released to you when the rider confirms receipt.`, 'Mark the build started when you begin.'],
+        { url: moneyLinks.job(a.jobId), label: 'Open the job' },
+      );
+}
+
+export function buildStartedMail(to: string, a: { jobId: string; title: string; shopName: string }): MailContent {
+  return notice(to, `${a.shopName} started “${a.title}”`, 'Your build has started', [`${a.shopName} has started building “${a.title}”.`, 'From now on a cancellation by you refunds only part of the price; the job page shows how much.'], {
+    url: moneyLinks.job(a.jobId),
+    label: 'Open the job',
+  });
+}
+
+export function jobShippedMail(
+  to: string,
+  a: { jobId: string; title: string; handover: 'carrier' | 'pickup'; carrier?: string | null; trackingNumber?: string | null; autoConfirmAt: Date },
+): MailContent {
+  const how =
+    a.handover === 'pickup'
+      ? `“${a.title}” is ready for pickup at the shop.`
+      : `“${a.title}” is on its way with ${a.carrier ?? 'the carrier'}, tracking number ${a.trackingNumber ?? 'not given'}.`;
+  return notice(
+    to,
+    a.handover === 'pickup' ? `“${a.title}” is ready for pickup` : `“${a.title}” has shipped`,
+    a.handover === 'pickup' ? 'Your wheel is ready' : 'Your wheel is on its way',
+    [how, `When you have it, check it and confirm receipt so the builder is paid. If you do nothing and open no dispute, we confirm for you on ${day(a.autoConfirmAt)} (UTC).`],
+    { url: moneyLinks.job(a.jobId), label: 'Open the job' },
+  );
+}
+
+export function moneyReleasedMail(
+  to: string,
+  a: { jobId: string; title: string; audience: 'rider' | 'builder'; shareCents: number; feeCents: number; payoutCents: number; automatic: boolean },
+): MailContent {
+  const when = a.automatic ? 'The waiting period after shipping ended with no dispute, so receipt was confirmed automatically.' : 'The rider confirmed receipt.';
+  return a.audience === 'builder'
+    ? notice(
+        to,
+        `Released: ${formatUsd(a.payoutCents)} for “${a.title}”`,
+        'Your money is on its way',
+        [when, `We are transferring ${formatUsd(a.payoutCents)} to your payout account: ${formatUsd(a.shareCents)} less our referral fee of ${formatUsd(a.feeCents)}.`],
+        { url: moneyLinks.job(a.jobId), label: 'Open the job' },
+      )
+    : notice(to, `“${a.title}” is complete`, 'The job is complete', [when, 'The money in escrow has been released to the builder. Thank you for building with Lacewright.'], {
+        url: moneyLinks.job(a.jobId),
+        label: 'Open the job',
+      });
+}
+
+export function refundSentMail(to: string, a: { jobId: string; title: string; refundCents: number }): MailContent {
+  return notice(to, `Refund of ${formatUsd(a.refundCents)} for “${a.title}”`, 'Your refund is on its way', [`We sent ${formatUsd(a.refundCents)} back to the card you paid with for “${a.title}”.`, 'Banks usually show a refund within 5 to 10 business days.'], {
+    url: moneyLinks.job(a.jobId),
+    label: 'Open the job',
+  });
+}
+
+export function jobCancelledMail(
+  to: string,
+  a: { jobId: string; title: string; cancelledBy: 'rider' | 'builder'; refundCents: number; payoutCents: number; audience: 'rider' | 'builder' },
+): MailContent {
+  const who = a.cancelledBy === 'rider' ? 'The rider' : 'The builder';
+  const money =
+    a.refundCents === 0 && a.payoutCents === 0
+      ? 'No money had been paid, so nothing moves.'
+      : `${formatUsd(a.refundCents)} goes back to the rider${a.payoutCents > 0 ? ` and ${formatUsd(a.payoutCents)} is paid to the builder for work already done` : ''}.`;
+  return notice(to, `“${a.title}” was cancelled`, 'A job was cancelled', [`${who} cancelled “${a.title}”.`, money], { url: moneyLinks.job(a.jobId), label: 'Open the job' });
+}
+
+export function disputeOpenedMail(to: string, a: { jobId: string; disputeId: string; title: string; openedBy: 'rider' | 'builder'; reason: string; audience: 'rider' | 'builder' | 'admin' }): MailContent {
+  const who = a.openedBy === 'rider' ? 'The rider' : 'The builder';
+  return notice(
+    to,
+    `Dispute opened on “${a.title}”`,
+    'A dispute froze the money',
+    [`${who} opened a dispute on “${a.title}”: ${a.reason}.`, 'The money stays in escrow until an admin releases it, refunds it or splits it, with a written reason. Add what you know to the dispute.'],
+    a.audience === 'admin' ? { url: moneyLinks.adminDispute(a.disputeId), label: 'Review the dispute' } : { url: moneyLinks.job(a.jobId), label: 'Open the job' },
+  );
+}
+
+export function disputeDecidedMail(to: string, a: { jobId: string; title: string; refundCents: number; payoutCents: number; feeCents: number; reason: string }): MailContent {
+  const parts = [
+    a.refundCents > 0 ? `${formatUsd(a.refundCents)} goes back to the rider.` : 'Nothing is refunded to the rider.',
+    a.payoutCents > 0 ? `${formatUsd(a.payoutCents)} is paid to the builder (after the ${formatUsd(a.feeCents)} referral fee).` : 'Nothing is paid to the builder.',
+  ];
+  return notice(to, `Dispute decided on “${a.title}”`, 'An admin settled the dispute', [`An admin settled the dispute on “${a.title}”.`, parts.join(' '), `Their reason: ${a.reason}`], {
+    url: moneyLinks.job(a.jobId),
+    label: 'Open the job',
+  });
+}
+
+export function payoutSetupNeededMail(to: string, a: { jobId: string; title: string }): MailContent {
+  return notice(
+    to,
+    `Set up payouts so the rider can pay for “${a.title}”`,
+    'A rider is waiting to pay you',
+    [`The rider wants to pay for “${a.title}”, but your shop has no payout account yet.`, 'Set up payouts (a few minutes) and the rider can pay into escrow straight away.'],
+    { url: moneyLinks.payouts(), label: 'Set up payouts' },
+  );
+}
