@@ -1,8 +1,9 @@
 'use client';
 
+import { useState } from 'react';
+import { useDebounced } from '@/components/hooks/useDebounced';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import { useEffect, useState } from 'react';
 import { Controller, useForm, useWatch, type Control } from 'react-hook-form';
 import { SelectField, TextField } from '@/components/ui/Field';
 import { Notice } from '@/components/ui/Notice';
@@ -40,14 +41,6 @@ async function postFit(values: FitRequestInput): Promise<FitResponse> {
   throw new Error(body.error ?? `The fit check failed (${res.status}).`);
 }
 
-function useDebounced<T>(value: T, ms: number): T {
-  const [debounced, setDebounced] = useState(value);
-  useEffect(() => {
-    const t = setTimeout(() => setDebounced(value), ms);
-    return () => clearTimeout(t);
-  }, [value, ms]);
-  return debounced;
-}
 
 /** A millimetre value shown and typed in the chosen unit. */
 function LengthField({ control, name, label, unit, hint }: { control: Control<FitRequestInput>; name: 'rimWidthMm' | 'tireWidthMm' | 'chainstayLengthMm'; label: string; unit: LengthUnit; hint?: string }) {

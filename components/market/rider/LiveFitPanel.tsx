@@ -1,7 +1,7 @@
 'use client';
 
+import { useDebounced } from '@/components/hooks/useDebounced';
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import { useEffect, useState } from 'react';
 import { Card } from '@/components/ui/Card';
 import { Notice } from '@/components/ui/Notice';
 import { VerdictBadge } from '@/components/wheel/FitResultPanel';
@@ -20,14 +20,6 @@ async function fitWheel(wheel: WheelSpec, frame: FrameSpec): Promise<Answer> {
   throw new Error(body.error ?? 'The fit check is not answering.');
 }
 
-function useDebounced<T>(value: T, ms: number): T {
-  const [v, setV] = useState(value);
-  useEffect(() => {
-    const t = setTimeout(() => setV(value), ms);
-    return () => clearTimeout(t);
-  }, [value, ms]);
-  return v;
-}
 
 /** The engine's answer for each wheel as the rider fills the form. */
 export function LiveFitPanel({ wheels, frame }: { wheels: WheelSpec[]; frame: FrameSpec }) {
