@@ -1,13 +1,20 @@
+/**
+ * The geography the tiles draw, read from the packaged atlases once per process and
+ * projected to Web Mercator world pixels.
+ *
+ * The US comes from the Census layer (us-atlas), which stops at the shore, so the Great
+ * Lakes and bays are water. Everything else comes from the world layer (world-atlas,
+ * Natural Earth), which has no lakes: its country shapes run out to the borders in the
+ * lakes, so the Canadian halves of the border lakes are drawn as land. A lakes layer would
+ * fix that; none ships in the installed packages.
+ */
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { feature, mesh } from 'topojson-client';
 import type { GeometryCollection, Topology } from 'topojson-specification';
 import type { Geometry, LineString, Polygon, Position } from 'geojson';
-import { lonLatToWorldUnit } from './geo';
+import { lonLatToWorldUnit, WORLD_PX } from './geo';
 import { landBorderRuns } from './land-border';
-
-/** Side of the zoom-0 tile in pixels; shapes are stored in these world pixels. */
-export const WORLD_PX = 256;
 
 /** [minX, minY, maxX, maxY] in zoom-0 world pixels. */
 export type Bounds = [number, number, number, number];
@@ -185,6 +192,7 @@ async function buildAtlas(detail: AtlasDetail): Promise<Atlas> {
   const usBorder = mesh(world, countries, (a, b) => a !== b && (a.id === US_COUNTRY_ID || b.id === US_COUNTRY_ID));
 
   return {
+    // The world layer's US would cover the Great Lakes; the Census layer below draws the US instead.
     foreignLand: feature(world, pick((id) => id !== US_COUNTRY_ID)).features.flatMap((f) => polygonsOf(f.geometry)),
     usLand,
     usLandWorldLayer: feature(world, pick((id) => id === US_COUNTRY_ID)).features.flatMap((f) => polygonsOf(f.geometry)),

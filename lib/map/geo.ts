@@ -4,6 +4,9 @@ export const EARTH_RADIUS_KM = 6371;
 /** International statute mile in kilometres (exact by definition). */
 const KM_PER_MILE = 1.609344;
 
+/** Side of the single zoom-0 tile in pixels: the unit the map's projected shapes are stored in. */
+export const WORLD_PX = 256;
+
 /** Web Mercator stops here so the world is a square (atan(sinh(π)) in degrees). */
 export const MAX_MERCATOR_LAT = 85.0511287798066;
 

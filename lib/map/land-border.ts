@@ -1,5 +1,5 @@
 import type { MultiLineString, Polygon, Position } from 'geojson';
-import { EARTH_RADIUS_KM, lonLatToWorldUnit } from './geo';
+import { EARTH_RADIUS_KM, lonLatToWorldUnit, WORLD_PX } from './geo';
 import type { Shape } from './atlas';
 
 /**
@@ -9,8 +9,6 @@ import type { Shape } from './atlas';
  * crosses), which must stay water.
  */
 export const LAND_BORDER_REACH_KM = 2.5;
-
-const WORLD_PX = 256;
 
 /** Kilometres covered by one zoom-0 world pixel at a latitude (Mercator scale). */
 export function kmPerWorldPx(latDeg: number): number {

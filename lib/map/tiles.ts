@@ -2,10 +2,10 @@ import { createHash } from 'node:crypto';
 import { geoIdentity, geoPath } from 'd3-geo';
 import type { GeometryCollection, LineString, Polygon } from 'geojson';
 import sharp from 'sharp';
-import { loadAtlas, WORLD_PX, type Atlas, type AtlasDetail, type Bounds, type Shape } from './atlas';
+import { loadAtlas, type Atlas, type AtlasDetail, type Bounds, type Shape } from './atlas';
 import { Invalid } from '@/lib/errors';
 import { MAP_COLORS } from './colors';
-import { worldUnitToLonLat } from './geo';
+import { WORLD_PX, worldUnitToLonLat } from './geo';
 import { kmPerWorldPx, LAND_BORDER_REACH_KM } from './land-border';
 import { LruCache } from './tile-cache';
 
@@ -191,6 +191,14 @@ export function etagMatches(ifNoneMatch: string | null, etag: string): boolean {
     const t = tag.trim();
     return t === '*' || t.replace(/^W\//, '') === etag;
   });
+}
+
+/**
+ * Loads both atlas detail levels ahead of the first tile request (about 1 to 2 s of
+ * parsing on a cold process); optional, e.g. from the server's start-up hook.
+ */
+export async function warmTileRenderer(): Promise<void> {
+  await Promise.all([loadAtlas('low'), loadAtlas('high')]);
 }
 
 /** Counts for tests and the benchmark. */

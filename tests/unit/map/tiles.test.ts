@@ -49,7 +49,7 @@ async function dominant(png: Buffer): Promise<Rgb> {
   return [r, g, b];
 }
 
-describe('renderTile', () => {
+describe('renderTile', { timeout: SLOW_MS }, () => {
   it(
     'draws a 256 × 256 PNG of the country over the Great Plains, mostly US land with state lines',
     async () => {
@@ -62,7 +62,6 @@ describe('renderTile', () => {
       // sharp's dominant colour is a 16-level histogram bin, hence the tolerance.
       expect(near(await dominant(png), hex(MAP_COLORS.usLand), 16)).toBe(true);
     },
-    SLOW_MS,
   );
 
   it('draws open ocean as water only, and its dominant colour differs from a land tile', async () => {
@@ -81,7 +80,6 @@ describe('renderTile', () => {
       expect(await shareOf(png, MAP_COLORS.usLand)).toBeGreaterThan(0.15);
       expect(await shareOf(png, MAP_COLORS.water)).toBeGreaterThan(0.15);
     },
-    SLOW_MS,
   );
 
   it(
@@ -96,7 +94,6 @@ describe('renderTile', () => {
       expect(await shareOf(png, MAP_COLORS.usLand)).toBeGreaterThan(0.5);
       expect(await shareOfLines(png, [MAP_COLORS.usLand, MAP_COLORS.water])).toBeGreaterThan(0.002);
     },
-    SLOW_MS,
   );
 
   it(
@@ -122,7 +119,6 @@ describe('renderTile', () => {
       // ...and 12 px away in each quadrant there is plain land, not a line.
       for (const [dx, dy] of [[-12, -12], [12, -12], [-12, 12], [12, 12]]) expect(near(at(px + dx, py + dy), land, 3)).toBe(true);
     },
-    SLOW_MS,
   );
 
   it('rejects addresses outside the grid or the zoom range', async () => {
