@@ -54,6 +54,8 @@ export interface BoardPage {
   capabilities: Capabilities;
 }
 
+const NEAREST_SEARCH_STEPS_MILES = [50, 200, 800];
+
 const DEFAULT_ORDER: Record<BoardSort, 'asc' | 'desc'> = { newest: 'desc', neededBy: 'asc', budget: 'desc', distance: 'asc' };
 
 interface Cursor {
@@ -100,29 +102,7 @@ export async function boardPage(db: Knex, actor: SessionUser, query: BoardQuery,
   const order = query.order ?? DEFAULT_ORDER[query.sort];
   const distance = milesSql(db, shop, 'r.latitude', 'r.longitude');
 
-  const q = db('wheel_requests as r').where('r.status', 'open').andWhere('r.expires_at', '>', now);
-  if (query.diameterIn !== undefined) q.whereRaw('r.diameters_in @> array[?]::numeric[]', [query.diameterIn]);
-  if (query.rimWidthIn !== undefined) q.whereRaw('r.rim_widths_in @> array[?]::numeric[]', [query.rimWidthIn]);
-  if (query.gauge !== undefined) q.whereRaw('r.spoke_gauges @> array[?]::integer[]', [query.gauge]);
-  if (query.spokes !== undefined) q.whereRaw('r.spoke_counts @> array[?]::integer[]', [query.spokes]);
-  if (query.budgetMinCents !== undefined) q.where('r.budget_cents', '>=', query.budgetMinCents);
-  if (query.budgetMaxCents !== undefined) q.where('r.budget_cents', '<=', query.budgetMaxCents);
-  if (query.neededByFrom) q.where('r.needed_by', '>=', query.neededByFrom);
-  if (query.neededByTo) q.where('r.needed_by', '<=', query.neededByTo);
-  if (query.maxMiles !== undefined) {
-    const box = boundingBox(shop, query.maxMiles);
-    q.whereBetween('r.latitude', [box.minLat, box.maxLat]);
-    if (box.minLon !== null && box.maxLon !== null) q.whereBetween('r.longitude', [box.minLon, box.maxLon]);
-    q.where(distance, '<=', query.maxMiles);
-  }
-  if (query.capabilityFilter) {
-    // A request is shown when all of its wheels are inside the shop's lists (<@: "contained in").
-    if (caps.diametersIn.length) q.whereRaw('r.diameters_in <@ ?::numeric[]', [caps.diametersIn]);
-    if (caps.rimWidthsIn.length) q.whereRaw('r.rim_widths_in <@ ?::numeric[]', [caps.rimWidthsIn]);
-    if (caps.gauges.length) q.whereRaw('r.spoke_gauges <@ ?::integer[]', [caps.gauges]);
-    if (caps.spokeCounts.length) q.whereRaw('r.spoke_counts <@ ?::integer[]', [caps.spokeCounts]);
-  }
-
+  const cursor = query.cursor ? decodeCursor(query.cursor, query.sort, order) : null;
   const sortKey: Record<BoardSort, { expr: Knex.Raw | string; cast: string }> = {
     newest: { expr: 'r.published_at', cast: 'timestamptz' },
     neededBy: { expr: 'r.needed_by', cast: 'date' },
@@ -131,39 +111,78 @@ export async function boardPage(db: Knex, actor: SessionUser, query: BoardQuery,
   };
   const key = sortKey[query.sort];
   const keySql = typeof key.expr === 'string' ? db.raw('??', [key.expr]) : key.expr;
-  if (query.cursor) {
-    const c = decodeCursor(query.cursor, query.sort, order);
-    q.whereRaw(`(${keySql.toQuery()}, r.id) ${order === 'asc' ? '>' : '<'} (?::${key.cast}, ?::uuid)`, [c.v, c.id]);
-  }
-  q.orderByRaw(`${keySql.toQuery()} ${order}, r.id ${order}`);
 
-  const rows = await q
-    .select(
-      'r.id',
-      'r.title',
-      'r.city',
-      'r.region',
-      'r.delivery',
-      'r.needed_by',
-      'r.budget_cents',
-      'r.baseline_low_cents',
-      'r.baseline_cents',
-      'r.baseline_high_cents',
-      'r.fit_verdict',
-      'r.spec',
-      'r.published_at',
-      'r.expires_at',
-      // Full microsecond precision for the cursor; a JS Date would drop it and skip rows.
-      db.raw(`to_json(r.published_at) #>> '{}' as published_key`),
-      db.raw('? as distance_miles', [distance]),
-      db.raw(`(select count(*)::int from bids b where b.request_id = r.id and b.status = 'live') as live_bid_count`),
-      db.raw(
-        `(select json_build_object('id', b.id, 'status', b.status, 'totalCents', b.total_cents)
-            from bids b where b.request_id = r.id and b.shop_id = ? order by b.created_at desc limit 1) as my_bid`,
-        [shopId],
-      ),
-    )
-    .limit(query.limit + 1);
+  /** One page of rows, optionally only those within `radiusMiles` of the shop. */
+  const fetchRows = (radiusMiles: number | undefined) => {
+    const q = db('wheel_requests as r').where('r.status', 'open').andWhere('r.expires_at', '>', now);
+    if (query.diameterIn !== undefined) q.whereRaw('r.diameters_in @> array[?]::numeric[]', [query.diameterIn]);
+    if (query.rimWidthIn !== undefined) q.whereRaw('r.rim_widths_in @> array[?]::numeric[]', [query.rimWidthIn]);
+    if (query.gauge !== undefined) q.whereRaw('r.spoke_gauges @> array[?]::integer[]', [query.gauge]);
+    if (query.spokes !== undefined) q.whereRaw('r.spoke_counts @> array[?]::integer[]', [query.spokes]);
+    if (query.budgetMinCents !== undefined) q.where('r.budget_cents', '>=', query.budgetMinCents);
+    if (query.budgetMaxCents !== undefined) q.where('r.budget_cents', '<=', query.budgetMaxCents);
+    if (query.neededByFrom) q.where('r.needed_by', '>=', query.neededByFrom);
+    if (query.neededByTo) q.where('r.needed_by', '<=', query.neededByTo);
+    if (radiusMiles !== undefined) {
+      const box = boundingBox(shop, radiusMiles);
+      q.whereBetween('r.latitude', [box.minLat, box.maxLat]);
+      if (box.minLon !== null && box.maxLon !== null) q.whereBetween('r.longitude', [box.minLon, box.maxLon]);
+      q.where(distance, '<=', radiusMiles);
+    }
+    if (query.capabilityFilter) {
+      // A request is shown when all of its wheels are inside the shop's lists (<@: "contained in").
+      if (caps.diametersIn.length) q.whereRaw('r.diameters_in <@ ?::numeric[]', [caps.diametersIn]);
+      if (caps.rimWidthsIn.length) q.whereRaw('r.rim_widths_in <@ ?::numeric[]', [caps.rimWidthsIn]);
+      if (caps.gauges.length) q.whereRaw('r.spoke_gauges <@ ?::integer[]', [caps.gauges]);
+      if (caps.spokeCounts.length) q.whereRaw('r.spoke_counts <@ ?::integer[]', [caps.spokeCounts]);
+    }
+    if (cursor) q.whereRaw(`(${keySql.toQuery()}, r.id) ${order === 'asc' ? '>' : '<'} (?::${key.cast}, ?::uuid)`, [cursor.v, cursor.id]);
+    return q
+      .orderByRaw(`${keySql.toQuery()} ${order}, r.id ${order}`)
+      .select(
+        'r.id',
+        'r.title',
+        'r.city',
+        'r.region',
+        'r.delivery',
+        'r.needed_by',
+        'r.budget_cents',
+        'r.baseline_low_cents',
+        'r.baseline_cents',
+        'r.baseline_high_cents',
+        'r.fit_verdict',
+        'r.spec',
+        'r.published_at',
+        'r.expires_at',
+        // Full microsecond precision for the cursor; a JS Date would drop it and skip rows.
+        db.raw(`to_json(r.published_at) #>> '{}' as published_key`),
+        db.raw('? as distance_miles', [distance]),
+        db.raw(`(select count(*)::int from bids b where b.request_id = r.id and b.status = 'live') as live_bid_count`),
+        db.raw(
+          `(select json_build_object('id', b.id, 'status', b.status, 'totalCents', b.total_cents)
+              from bids b where b.request_id = r.id and b.shop_id = ? order by b.created_at desc limit 1) as my_bid`,
+          [shopId],
+        ),
+      )
+      .limit(query.limit + 1);
+  };
+
+  let rows: Awaited<ReturnType<typeof fetchRows>> | undefined;
+  if (query.sort === 'distance' && order === 'asc') {
+    // Nearest first: look in growing circles beyond the last row shown and stop at the first circle
+    // that fills a page. Every row inside a circle is nearer than every row outside it, so the page is
+    // exact, and it costs a look at nearby rows instead of a distance for every open request.
+    const from = cursor ? Number(cursor.v) : 0;
+    for (const step of NEAREST_SEARCH_STEPS_MILES) {
+      if (query.maxMiles !== undefined && from + step >= query.maxMiles) break;
+      const found = await fetchRows(from + step);
+      if (found.length > query.limit) {
+        rows = found;
+        break;
+      }
+    }
+  }
+  rows ??= await fetchRows(query.maxMiles);
 
   const hasMore = rows.length > query.limit;
   const page = rows.slice(0, query.limit);
