@@ -46,11 +46,18 @@ const US_COUNTRY_ID = '840'; // ISO 3166-1 numeric, as world-atlas keys countrie
 // bounds culling skips most of a line that only grazes a tile.
 const LINE_CHUNK_POINTS = 48;
 
-// Read at run time rather than imported: keeps the multi-megabyte JSON out of
-// the server bundle and out of the type checker.
-async function readTopology(pkg: string, file: string): Promise<Topology> {
-  const text = await readFile(path.join(process.cwd(), 'node_modules', pkg, file), 'utf8');
-  return JSON.parse(text) as Topology;
+// Read at run time rather than imported: keeps the multi-megabyte JSON out of the server
+// bundle and out of the type checker. Whole literal paths so build-time file tracing can
+// find exactly these files.
+const ATLAS_FILES = {
+  worldLow: () => path.join(process.cwd(), 'node_modules', 'world-atlas', 'countries-50m.json'),
+  worldHigh: () => path.join(process.cwd(), 'node_modules', 'world-atlas', 'countries-10m.json'),
+  usLow: () => path.join(process.cwd(), 'node_modules', 'us-atlas', 'states-10m.json'),
+  usHigh: () => path.join(process.cwd(), 'node_modules', 'us-atlas', 'counties-10m.json'),
+};
+
+async function readTopology(file: string): Promise<Topology> {
+  return JSON.parse(await readFile(file, 'utf8')) as Topology;
 }
 
 // Shapes that reach the poles (Antarctica) must run on past the world's edge: clamped at
@@ -178,8 +185,8 @@ function collection(topology: Topology, name: string): GeometryCollection {
 
 async function buildAtlas(detail: AtlasDetail): Promise<Atlas> {
   const [world, us] = await Promise.all([
-    readTopology('world-atlas', detail === 'high' ? 'countries-10m.json' : 'countries-50m.json'),
-    readTopology('us-atlas', detail === 'high' ? 'counties-10m.json' : 'states-10m.json'),
+    readTopology(detail === 'high' ? ATLAS_FILES.worldHigh() : ATLAS_FILES.worldLow()),
+    readTopology(detail === 'high' ? ATLAS_FILES.usHigh() : ATLAS_FILES.usLow()),
   ]);
 
   const countries = collection(world, 'countries');
