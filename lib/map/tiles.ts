@@ -38,11 +38,11 @@ export interface RenderedTile {
 
 export function assertValidTile(z: number, x: number, y: number): void {
   if (!Number.isInteger(z) || z < MIN_ZOOM || z > MAX_ZOOM) {
-    throw new InvalidTileError(`zoom must be an integer from ${MIN_ZOOM} to ${MAX_ZOOM}`);
+    throw new InvalidTileError(`Zoom must be a whole number from ${MIN_ZOOM} to ${MAX_ZOOM}.`);
   }
   const n = 2 ** z;
-  if (!Number.isInteger(x) || x < 0 || x >= n) throw new InvalidTileError(`x must be an integer from 0 to ${n - 1}`);
-  if (!Number.isInteger(y) || y < 0 || y >= n) throw new InvalidTileError(`y must be an integer from 0 to ${n - 1}`);
+  if (!Number.isInteger(x) || x < 0 || x >= n) throw new InvalidTileError(`Tile x must be a whole number from 0 to ${n - 1} at zoom ${z}.`);
+  if (!Number.isInteger(y) || y < 0 || y >= n) throw new InvalidTileError(`Tile y must be a whole number from 0 to ${n - 1} at zoom ${z}.`);
 }
 
 const DIGITS = /^\d{1,4}$/;
@@ -50,7 +50,7 @@ const DIGITS = /^\d{1,4}$/;
 /** Parses the URL segments of /api/tiles/{z}/{x}/{y}.png into validated numbers. */
 export function parseTileCoords(z: string, x: string, y: string): TileCoords {
   const yDigits = y.endsWith('.png') ? y.slice(0, -'.png'.length) : y;
-  if (![z, x, yDigits].every((s) => DIGITS.test(s))) throw new InvalidTileError('tile coordinates must be whole numbers');
+  if (![z, x, yDigits].every((s) => DIGITS.test(s))) throw new InvalidTileError('Tile addresses look like /{z}/{x}/{y}.png with whole numbers.');
   const coords = { z: Number(z), x: Number(x), y: Number(yDigits) };
   assertValidTile(coords.z, coords.x, coords.y);
   return coords;
