@@ -134,6 +134,18 @@ export function bidToFormValues(bid: BidView, request: Pick<RequestDetail, 'whee
   };
 }
 
+const schemaResolver = zodResolver(bidInputSchema);
+
+/** Fields of a proposed wheel change left blank (react-hook-form may hold them as null or '') mean "keep as asked". */
+function withoutBlankChanges(values: BidFormValues): BidFormValues {
+  const change = values.proposedChange;
+  if (!change) return values;
+  const wheels = (change.wheels ?? []).map(
+    (w) => Object.fromEntries(Object.entries(w as Record<string, unknown>).filter(([, v]) => v !== null && v !== undefined && v !== '' && !Number.isNaN(v))) as typeof w,
+  );
+  return { ...values, proposedChange: { ...change, wheels } };
+}
+
 export function BidForm({
   request,
   initial,
@@ -157,7 +169,7 @@ export function BidForm({
     return closes && closes < twoWeeks && closes > todayIso() ? closes : twoWeeks;
   })();
   const form = useForm<BidFormValues, unknown, BidInput>({
-    resolver: zodResolver(bidInputSchema),
+    resolver: (values, context, options) => schemaResolver(withoutBlankChanges(values), context, options),
     defaultValues: initial ?? {
       partsCents: undefined,
       labourCents: undefined,

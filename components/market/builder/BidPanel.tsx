@@ -51,7 +51,7 @@ function BidSummary({ bid }: { bid: Bid }) {
     <div className="space-y-4" data-testid="my-bid">
       <div className="flex flex-wrap items-center gap-2">
         <Badge tone={status.tone}>{status.label}</Badge>
-        {bid.revision > 0 && <span className="text-xs text-ink-500">Revised {bid.revision === 1 ? 'once' : `${bid.revision} times`}</span>}
+        {bid.revision > 1 && <span className="text-xs text-ink-500">Revised {bid.revision === 2 ? 'once' : `${bid.revision - 1} times`}</span>}
         <span className="ml-auto text-xs text-ink-500">Sent {formatDay(bid.createdAt)}</span>
       </div>
       <table className="w-full text-sm">

@@ -83,8 +83,8 @@ export function FitSummary({ request }: { request: RequestDetail }) {
             </dl>
             {w.reasons.length > 0 && (
               <div className="mt-3">
-                <p className="text-sm font-semibold text-rust-700">Why it does not fit as described</p>
-                <ul className="mt-1 list-disc space-y-1 pl-5 text-sm">
+                <p className="text-sm font-semibold text-ink-700">How the engine reads it</p>
+                <ul className="mt-1 list-disc space-y-1 pl-5 text-sm text-ink-700">
                   {w.reasons.map((r) => (
                     <li key={r}>{r}</li>
                   ))}
