@@ -15,7 +15,7 @@ import { OPEN_PAYMENT_STATUSES, payKey, type PaymentRow } from './pay';
 import { jobTitle, mailEach, riderAddress, shopAddresses } from './people';
 import { sendPayout } from './payouts';
 import { cancellationTerms } from './policy';
-import { describeFailure } from './processorErrors';
+import { describeFailure, failureKind } from './processorErrors';
 import { sendRefund } from './refunds';
 import type { CancelInput } from './schema';
 
@@ -68,11 +68,18 @@ export async function cancelOpenIntents(ctx: PaymentsContext, jobId: string): Pr
     .select('p.*')) as PaymentRow[];
   let closed = 0;
   for (const p of open) {
+    const tries = p.close_attempts;
     try {
-      await ctx.stripe.paymentIntents.cancel(p.payment_intent_id!, { cancellation_reason: 'abandoned' }, { idempotencyKey: `${payKey(jobId, p.attempt)}:cancel` });
+      await ctx.stripe.paymentIntents.cancel(
+        p.payment_intent_id!,
+        { cancellation_reason: 'abandoned' },
+        { idempotencyKey: `${payKey(jobId, p.attempt)}:close${tries === 0 ? '' : `:${tries + 1}`}` },
+      );
       await markCanceled(ctx.db, jobId, p.id);
       closed += 1;
     } catch (err) {
+      // An answer is stored under its key, so the next try gets a new one; a lost answer reuses it.
+      if (failureKind(err) === 'answered') await ctx.db('payments').where({ id: p.id }).increment('close_attempts', 1);
       console.warn(`payments: could not close payment ${p.payment_intent_id} of job ${jobId}: ${describeFailure(err)}`);
     }
   }
@@ -86,6 +93,9 @@ async function markCanceled(db: Knex, jobId: string, paymentId: string): Promise
   });
 }
 
+/** After this many refused tries the worker stops; a payment that still arrives is refunded by the webhook. */
+const MAX_CLOSE_ATTEMPTS = 10;
+
 /** The worker's pass over cancelled jobs whose payment page is still open at the processor. */
 export async function closeAbandonedIntents(ctx: PaymentsContext, limit = 50): Promise<number> {
   const jobIds = await ctx.db('payments as p')
@@ -93,6 +103,7 @@ export async function closeAbandonedIntents(ctx: PaymentsContext, limit = 50): P
     .whereIn('j.status', ['cancelled', 'refunded', 'resolved', 'completed'])
     .whereIn('p.status', OPEN_PAYMENT_STATUSES as string[])
     .whereNotNull('p.payment_intent_id')
+    .andWhere('p.close_attempts', '<', MAX_CLOSE_ATTEMPTS)
     .distinct('p.job_id')
     .limit(limit)
     .pluck('p.job_id');

@@ -27,6 +27,7 @@ export interface PaymentRow {
   status: PaymentStatus;
   hosted_url: string | null;
   last_error: string | null;
+  close_attempts: number;
   created_at: Date;
   updated_at: Date;
 }
