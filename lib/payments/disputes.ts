@@ -116,17 +116,18 @@ async function loadDispute(db: Knex, disputeId: string): Promise<DisputeRow> {
   return row;
 }
 
-/** Either side, or an admin, adds to an open dispute's thread. */
-export async function addDisputeNote(ctx: PaymentsContext, actor: SessionUser, disputeId: string, body: string): Promise<DisputeView> {
-  const dispute = await loadDispute(ctx.db, disputeId);
-  await ctx.db.transaction(async (trx) => {
-    const job = await lockJob(trx, dispute.job_id);
+/** Either side of the job, or an admin, adds to its open dispute's thread. */
+export async function addDisputeNote(ctx: PaymentsContext, actor: SessionUser, jobId: string, body: string): Promise<DisputeView> {
+  const disputeId = await ctx.db.transaction(async (trx) => {
+    const job = await lockJob(trx, jobId);
     const side = sideOf(actor, job);
-    if (!side) throw new NotFound('Dispute not found.');
-    const current = (await trx('disputes').where({ id: dispute.id }).first().forUpdate()) as DisputeRow;
+    if (!side) throw new NotFound('Job not found.');
+    const current = (await trx('disputes').where({ job_id: job.id }).first().forUpdate()) as DisputeRow | undefined;
+    if (!current) throw new Conflict('This job has no dispute.');
     if (current.status !== 'open') throw new Conflict('This dispute is settled; its thread is closed.');
-    await trx('dispute_notes').insert({ dispute_id: dispute.id, author_id: actor.id, author_role: side, body });
-    if (side === 'admin') await writeAudit(trx, actor, { action: 'dispute.note', targetType: 'dispute', targetId: dispute.id, details: { jobId: job.id } });
+    await trx('dispute_notes').insert({ dispute_id: current.id, author_id: actor.id, author_role: side, body });
+    if (side === 'admin') await writeAudit(trx, actor, { action: 'dispute.note', targetType: 'dispute', targetId: current.id, details: { jobId: job.id } });
+    return current.id;
   });
   return disputeView(ctx.db, await loadDispute(ctx.db, disputeId));
 }

@@ -16,6 +16,8 @@ declare module 'vitest' {
     appDatabaseUrl: string;
     appClusterDir: string;
     appClusterPort: number;
+    /** The payments stand-in the app talks to (test controls under /_test). */
+    paymentsFakeUrl: string;
   }
 }
 
@@ -25,7 +27,7 @@ export default async function setup(project: TestProject) {
   await migrateLatest(databaseUrl);
   await seedDemo(databaseUrl);
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lacewright-stack-'));
-  const ports = { app: await freePort(), smtp: await freePort(), mailApi: await freePort(), s3: await freePort() };
+  const ports = { app: await freePort(), smtp: await freePort(), mailApi: await freePort(), s3: await freePort(), payments: await freePort() };
   const appUrl = `http://127.0.0.1:${ports.app}`;
   try {
     await startStack({ databaseUrl, appUrl, authSecret: 'test-secret-for-the-browser-suite', dataDir, ports, quiet: true });
@@ -39,6 +41,7 @@ export default async function setup(project: TestProject) {
   project.provide('appDatabaseUrl', databaseUrl);
   project.provide('appClusterDir', cluster.dir);
   project.provide('appClusterPort', cluster.port);
+  project.provide('paymentsFakeUrl', `http://127.0.0.1:${ports.payments}`);
   return async () => {
     await stopAll();
     cluster.stop();

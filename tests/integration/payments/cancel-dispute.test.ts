@@ -108,12 +108,12 @@ describe('disputes', () => {
   });
 
   it('both sides and admins add to the thread; outsiders cannot', async () => {
-    const { rider, builder, disputeId, admin } = await disputed();
-    await addDisputeNote(h.ctx, builder, disputeId, 'It left the shop true; photos of the box to follow.');
-    await addDisputeNote(h.ctx, admin, disputeId, 'Please both send photos of the packaging.');
-    const view = await addDisputeNote(h.ctx, rider, disputeId, 'The box was crushed at one corner.');
+    const { rider, builder, jobId, disputeId, admin } = await disputed();
+    await addDisputeNote(h.ctx, builder, jobId, 'It left the shop true; photos of the box to follow.');
+    await addDisputeNote(h.ctx, admin, jobId, 'Please both send photos of the packaging.');
+    const view = await addDisputeNote(h.ctx, rider, jobId, 'The box was crushed at one corner.');
     expect(view.notes.map((n) => n.authorRole)).toEqual(['builder', 'admin', 'rider']);
-    await expect(addDisputeNote(h.ctx, await makeRider(h.db), disputeId, 'hello')).rejects.toThrow(NotFound);
+    await expect(addDisputeNote(h.ctx, await makeRider(h.db), jobId, 'hello')).rejects.toThrow(NotFound);
     expect(await h.db('admin_audit_log').where({ action: 'dispute.note', target_id: disputeId })).toHaveLength(1);
   });
 
