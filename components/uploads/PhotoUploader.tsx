@@ -232,7 +232,7 @@ function Uploader({ purpose, subjectId, onChange, title, description }: PhotoUpl
       {notice && <Notice tone="caution">{notice}</Notice>}
 
       {(items.length > 0 || (data && data.uploads.length > 0)) && (
-        <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3 md:grid-cols-4" aria-label="Photos">
+        <ul className="grid grid-cols-2 items-start gap-3 sm:grid-cols-3 md:grid-cols-4" aria-label="Photos">
           {data?.uploads.map((photo, i) => (
             <li key={photo.id} className="overflow-hidden rounded border border-chalk-200 bg-white">
               <a href={photo.imageUrl} target="_blank" rel="noopener" className="relative block aspect-square bg-chalk-100">
@@ -274,12 +274,15 @@ const PHASE_LABEL: Record<Phase, string> = { starting: 'Preparing…', sending: 
 function UploadingTile({ item, onRetry, onCancel }: { item: Item; onRetry: () => void; onCancel: () => void }) {
   const pct = Math.round(item.progress * 100);
   const failed = item.phase === 'failed';
+  const [previewable, setPreviewable] = useState(true);
   return (
     <li className={`overflow-hidden rounded border bg-white ${failed ? 'border-rust-500' : 'border-chalk-200'}`}>
-      <div className="relative aspect-square bg-chalk-100">
-        {/* A local preview of the chosen file; it never leaves the browser except through the upload. */}
-        {!failed && <Image src={item.previewUrl} alt="" fill unoptimized className="object-cover opacity-60" />}
-      </div>
+      {!failed && (
+        <div className="relative aspect-square bg-chalk-100">
+          {/* A local preview of the chosen file: it leaves the browser only through the upload. */}
+          {previewable && <Image src={item.previewUrl} alt="" fill unoptimized className="object-cover opacity-60" onError={() => setPreviewable(false)} />}
+        </div>
+      )}
       <div className="space-y-1 p-2 text-xs">
         <p className="truncate font-semibold text-ink-700" title={item.file.name}>
           {item.file.name}
