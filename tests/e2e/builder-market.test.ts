@@ -117,6 +117,23 @@ describe('the builder side of the marketplace, in a browser', () => {
     await screenshot(page, 'builder-board-filtered');
   });
 
+  it('shows the demo pair the shop has already bid on, with its bid, Revise and Withdraw', async () => {
+    await signInAsBuilder();
+    // A demo request from the seed; the demo builder's shop has a live bid on it.
+    const demo = page.getByTestId('board-row').filter({ hasText: '26-inch pair, 3-inch rims, 72 spokes' });
+    await demo.waitFor();
+    await expect(demo.innerText()).resolves.toContain('Yours: Live');
+    await demo.getByRole('link').click();
+    await page.waitForURL('**/board/*');
+    await page.getByTestId('my-bid').waitFor();
+    await expect(page.getByRole('button', { name: 'Revise bid' }).isVisible()).resolves.toBe(true);
+    await expect(page.getByRole('button', { name: 'Withdraw bid' }).isVisible()).resolves.toBe(true);
+    await expect(page.getByTestId('fit-front').isVisible()).resolves.toBe(true);
+    await expect(page.getByTestId('fit-rear').isVisible()).resolves.toBe(true);
+    await expect(page.getByTestId('distance').innerText()).resolves.toMatch(/mi from your shop/);
+    await screenshot(page, 'builder-demo-request');
+  });
+
   it('opens a request, bids with a live total and the ready date, and finds the bid under My bids', async () => {
     const title = `Polished 72-spoke rear ${Date.now()}`;
     const requestId = await publishRequest(title);
@@ -247,7 +264,9 @@ describe('the builder side of the marketplace, in a browser', () => {
 
     await page.getByLabel('Shop ZIP code').fill('00000');
     await page.getByRole('button', { name: 'Save settings' }).click();
-    await expect(page.getByText('We could not find that ZIP code.').isVisible()).resolves.toBe(true);
+    // The code has the right shape, so the server looks it up and answers under the field.
+    await page.getByText('We could not find that ZIP code.').waitFor();
+    await screenshot(page, 'builder-shop-settings-error');
     expect(await page.getByLabel('Shop ZIP code').inputValue()).toBe('00000');
   });
 });
