@@ -132,7 +132,7 @@ export async function startPayoutSetup(ctx: PaymentsContext, actor: SessionUser)
     const link = await stripe.accountLinks.create(
       {
         account: accountId,
-        type: 'account_onboarding',
+        type: row.status === 'active' ? 'account_update' : 'account_onboarding',
         refresh_url: `${settings.appUrl}/payouts?link=expired`,
         return_url: `${settings.appUrl}/payouts?from=onboarding`,
       },

@@ -1,0 +1,28 @@
+import { notFound } from 'next/navigation';
+import { JobStatusBadge } from '@/components/payments/JobStatusBadge';
+import { QueryProvider } from '@/components/providers/QueryProvider';
+import { PageHeading } from '@/components/ui/PageHeading';
+import { requirePageUser } from '@/lib/auth/guard';
+import { NotFound } from '@/lib/errors';
+import { paymentsContext } from '@/lib/payments/defaultContext';
+import { getJobForViewer } from '@/lib/payments/jobView';
+import { JobPanel } from './page-client';
+
+export const metadata = { title: 'Job' };
+export const dynamic = 'force-dynamic';
+
+export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const user = await requirePageUser(undefined, `/jobs/${id}`);
+  const job = await getJobForViewer(paymentsContext(), user, id).catch((err) => {
+    if (err instanceof NotFound) notFound();
+    throw err;
+  });
+  const who = job.viewer === 'rider' ? `Built by ${job.shop.name}` : job.viewer === 'builder' ? `For ${job.riderName}` : `${job.riderName} with ${job.shop.name}`;
+  return (
+    <QueryProvider>
+      <PageHeading title={job.title} lead={`${who} · ${job.delivery === 'pickup' ? 'local pickup' : 'shipped'}`} actions={<JobStatusBadge status={job.status} label={job.statusLabel} />} />
+      <JobPanel initial={job} />
+    </QueryProvider>
+  );
+}
