@@ -2,6 +2,7 @@ import { GetObjectCommand } from '@aws-sdk/client-s3';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createUpload } from '@/lib/storage/createUpload';
+import { discardStaleUploads } from '@/lib/storage/discardStaleUploads';
 import { finalizeUpload } from '@/lib/storage/finalizeUpload';
 import { readUploadImage } from '@/lib/storage/readUploadImage';
 import { testDb } from '../../support/db';
@@ -112,5 +113,21 @@ describe('processing a finalized photo', () => {
     expect(bytes.equals(await objectBytes(row.object_key))).toBe(true);
     const thumb = await readUploadImage(db, null, view.id, 'thumb', s3.storage);
     expect((await sharp(await streamBytes(thumb.body)).metadata()).width).toBe(320);
+  });
+
+  it('clears out unfinished uploads once stale, with what they left in storage, and keeps ready ones', async () => {
+    const { row: ready } = await uploadPortfolio(await photoJpeg(160, 120));
+    const builder = await makeBuilder(db);
+    const photo = await photoJpeg(160, 120);
+    const created = await createUpload(db, builder, { purpose: 'portfolio', subjectId: builder.shopId!, fileName: 'a.jpg', contentType: 'image/jpeg', bytes: photo.length }, s3.storage);
+    await putTo(created.uploadUrl, photo, created.headers);
+    const incoming = (await db('uploads').where({ id: created.uploadId }).first()).object_key;
+    await db('uploads').whereIn('id', [created.uploadId, ready.id]).update({ created_at: new Date(Date.now() - 2 * 86_400_000) });
+
+    expect(await discardStaleUploads(db, s3.storage)).toBeGreaterThanOrEqual(1);
+    expect(await db('uploads').where({ id: created.uploadId })).toEqual([]);
+    expect(await s3.keys(incoming)).toEqual([]);
+    expect((await db('uploads').where({ id: ready.id }).first()).status).toBe('ready');
+    expect(await s3.keys(ready.object_key)).toEqual([ready.object_key]);
   });
 });
