@@ -226,3 +226,32 @@ export function payoutSetupNeededMail(to: string, a: { jobId: string; title: str
     { url: moneyLinks.payouts(), label: 'Set up payouts' },
   );
 }
+
+// ------------------------------------------------------------------ trust and discovery (reviews, invitations)
+
+export function reviewReminderMail(to: string, a: { jobId: string; title: string; counterpart: string; writeUntil: Date }): MailContent {
+  return notice(
+    to,
+    `How did “${a.title}” go?`,
+    'Leave a review',
+    [
+      `“${a.title}” is complete. A few lines and some stars about ${a.counterpart} help other riders and builders decide who to work with.`,
+      `Reviews stay hidden from the other side until you have both written one, or until ${day(a.writeUntil)} (UTC), the last day to write.`,
+    ],
+    { url: moneyLinks.job(a.jobId), label: 'Write your review' },
+  );
+}
+
+export function bidInvitationMail(
+  to: string,
+  a: { requestId: string; requestTitle: string; place: string; neededBy: string; reasons: string[]; from: 'match' | 'rider' },
+): MailContent {
+  const why =
+    a.from === 'rider'
+      ? `A rider saw your shop page and invites you to bid on “${a.requestTitle}”, from ${a.place}, needed by ${a.neededBy}.`
+      : `A new request, “${a.requestTitle}” from ${a.place}, needed by ${a.neededBy}, looks like a good match for your shop.`;
+  return notice(to, `Invitation to bid: “${a.requestTitle}”`, 'You are invited to bid', a.reasons.length ? [why, `Why you: ${a.reasons.join('; ')}.`] : [why], {
+    url: marketLinks.builderRequest(a.requestId),
+    label: 'See the request',
+  });
+}
