@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { QueryProvider } from '@/components/providers/QueryProvider';
+import { PhotoGallery } from '@/components/uploads/PhotoGallery';
 import { PageHeading } from '@/components/ui/PageHeading';
 import { requirePageUser } from '@/lib/auth/guard';
 import { db } from '@/lib/db';
@@ -10,6 +11,7 @@ import { matchesCapabilities } from '@/lib/market/board';
 import { milesBetween, roundMiles } from '@/lib/market/distance';
 import { getRequestForViewer } from '@/lib/market/getRequestForViewer';
 import { getShopSettings } from '@/lib/market/shopSettings';
+import { listUploads } from '@/lib/storage/listUploads';
 import { BuilderRequestClient } from './page-client';
 
 export const metadata = { title: 'Wheel request' };
@@ -24,6 +26,7 @@ export default async function BuilderRequestPage({ params }: { params: Promise<{
   });
   if (!loaded) notFound();
   const [detail, row, shop] = loaded;
+  const { uploads: photos } = await listUploads(db, user, { purpose: 'request_photo', subjectId: id });
   return (
     <>
       <p className="mb-2 text-sm">
@@ -42,6 +45,12 @@ export default async function BuilderRequestPage({ params }: { params: Promise<{
           labourRateCentsPerHour={shop.labourRateCentsPerHour}
         />
       </QueryProvider>
+      <section className="mt-8" aria-labelledby="photos-heading">
+        <h2 id="photos-heading" className="mb-3 text-xl font-bold">
+          The rider&apos;s photos
+        </h2>
+        <PhotoGallery photos={photos} label="Rider's photo" emptyText="The rider has not added photos of the frame yet. Ask in the messages if you need them." />
+      </section>
     </>
   );
 }

@@ -5,6 +5,7 @@ import { ButtonLink } from '@/components/ui/Button';
 import { Card } from '@/components/ui/Card';
 import { Notice } from '@/components/ui/Notice';
 import { PageHeading } from '@/components/ui/PageHeading';
+import { PhotoUploader } from '@/components/uploads/PhotoUploader';
 import { VerdictBadge } from '@/components/wheel/FitResultPanel';
 import { requirePageUser } from '@/lib/auth/guard';
 import { db } from '@/lib/db';
@@ -78,6 +79,15 @@ export default async function RequestPage({ params }: { params: Promise<{ id: st
             </Card>
           );
         })}
+      </section>
+
+      <section className="mt-8" aria-label="Photos">
+        <PhotoUploader
+          purpose="request_photo"
+          subjectId={request.id}
+          title="Frame and dropout photos"
+          description="Photos of the dropouts, the chainstays near the tire and the bottom-bracket shell help builders check the fit."
+        />
       </section>
 
       <section className="mt-8" aria-labelledby="bids-heading">
