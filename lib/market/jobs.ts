@@ -22,3 +22,9 @@ export async function createJobAwaitingPayment(trx: Knex.Transaction, request: R
     .returning('*');
   return { id: job.id, requestId: job.request_id, bidId: job.bid_id, riderId: job.rider_id, shopId: job.shop_id, priceCents: job.price_cents, status: job.status };
 }
+
+/** The job a request became, if a bid on it was accepted. */
+export async function jobIdForRequest(db: Knex, requestId: string): Promise<string | null> {
+  const row = await db('jobs').where({ request_id: requestId }).first('id');
+  return row?.id ?? null;
+}

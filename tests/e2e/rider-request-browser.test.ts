@@ -87,8 +87,10 @@ describe('a rider posts a request, a builder bids, the rider compares and accept
     await screenshot(page, 'request-compare-bids');
     page.once('dialog', (d) => d.accept());
     await page.getByTestId('bid-row').first().getByRole('button', { name: 'Accept' }).click();
-    await page.waitForLoadState('networkidle');
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
+    await screenshot(page, 'job-after-accept');
     await page.goto(requestUrl);
+    await page.getByTestId('job-link').waitFor();
     await expect(page.getByTestId('status').first().getAttribute('data-status')).resolves.toBe('awarded');
     const statuses = await page.getByTestId('bid-row').locator('[data-status]').evaluateAll((els) => els.map((e) => e.getAttribute('data-status')));
     expect(statuses).toEqual(['accepted']);

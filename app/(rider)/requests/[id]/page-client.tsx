@@ -65,9 +65,11 @@ export function BidComparisonTable({ requestId }: { requestId: string }) {
   const compare = useQuery({ queryKey: ['compare', requestId], queryFn: () => getJson<BidComparison>(`/api/requests/${requestId}/compare`) });
   const accept = useMutation({
     mutationFn: (bidId: string) => postJson(`/api/requests/${requestId}/accept`, { bidId }),
-    onSuccess: async () => {
+    onSuccess: async (answer: { job?: { id: string } }) => {
       await queryClient.invalidateQueries({ queryKey: ['compare', requestId] });
-      router.refresh();
+      // Next comes paying into escrow, on the job's page.
+      if (answer.job?.id) router.push(`/jobs/${answer.job.id}`);
+      else router.refresh();
     },
     onError: (e: Error) => setError(e.message),
   });

@@ -12,6 +12,7 @@ import { db } from '@/lib/db';
 import { NotFound } from '@/lib/errors';
 import { formatCents } from '@/lib/format';
 import { getRequestForViewer } from '@/lib/market/getRequestForViewer';
+import { jobIdForRequest } from '@/lib/market/jobs';
 import { lacingLabel } from '@/lib/market/spec';
 import { hubById } from '@/lib/wheel';
 import { BidComparisonTable, RequestActions, RequestThreads } from './page-client';
@@ -25,6 +26,7 @@ export default async function RequestPage({ params }: { params: Promise<{ id: st
     if (err instanceof NotFound) notFound();
     throw err;
   });
+  const jobId = request.status === 'awarded' ? await jobIdForRequest(db, request.id) : null;
   return (
     <QueryProvider>
       <PageHeading
@@ -46,7 +48,19 @@ export default async function RequestPage({ params }: { params: Promise<{ id: st
           </div>
         }
       />
-      {request.nextStep && <Notice tone="info">{request.nextStep}</Notice>}
+      {request.nextStep && (
+        <Notice tone="info">
+          {request.nextStep}
+          {jobId && (
+            <>
+              {' '}
+              <a href={`/jobs/${jobId}`} data-testid="job-link">
+                Go to the job
+              </a>
+            </>
+          )}
+        </Notice>
+      )}
       <div className="mt-4">
         <RequestActions requestId={request.id} canPublish={request.canPublish} canCancel={request.canCancel} />
       </div>
