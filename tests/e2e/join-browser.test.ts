@@ -37,7 +37,7 @@ describe('joining and signing in, in a browser', () => {
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.waitForURL('**/board');
     await expect(page.getByText(/Browser Spoke Room in Milwaukee, WI/).isVisible()).resolves.toBe(true);
-    expect(await navLabels()).toEqual(['Open requests', 'My bids', 'Shop settings', 'Fit check']);
+    expect(await navLabels()).toEqual(['Open requests', 'My bids', 'Jobs', 'Payouts', 'Shop settings', 'Fit check']);
     await screenshot(page, 'board-after-join');
   });
 
@@ -60,7 +60,7 @@ describe('joining and signing in, in a browser', () => {
     await page.getByLabel('Password', { exact: true }).fill('lacewright-demo');
     await page.getByRole('button', { name: 'Sign in', exact: true }).click();
     await page.waitForURL('**/requests');
-    expect(await navLabels()).toEqual(['My wheel requests', 'Ask for a build', 'Fit check', 'Find a builder']);
+    expect(await navLabels()).toEqual(['My wheel requests', 'Ask for a build', 'My builds', 'Fit check', 'Find a builder']);
     await expect(page.getByTestId('signed-in-as').innerText()).resolves.toContain('Rider');
     await screenshot(page, 'rider-home');
   });
