@@ -1,6 +1,8 @@
 import { notFound } from 'next/navigation';
 import { JobStatusBadge } from '@/components/payments/JobStatusBadge';
 import { QueryProvider } from '@/components/providers/QueryProvider';
+import { ReviewForm } from '@/components/reviews/ReviewForm';
+import { Card } from '@/components/ui/Card';
 import { PageHeading } from '@/components/ui/PageHeading';
 import { requirePageUser } from '@/lib/auth/guard';
 import { NotFound } from '@/lib/errors';
@@ -23,6 +25,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
     <QueryProvider>
       <PageHeading title={job.title} lead={`${who} · ${job.delivery === 'pickup' ? 'local pickup' : 'shipped'}`} actions={<JobStatusBadge status={job.status} label={job.statusLabel} />} />
       <JobPanel initial={job} />
+      {job.status === 'completed' && job.viewer !== 'admin' && (
+        <Card className="mt-6">
+          <ReviewForm jobId={job.id} side={job.viewer === 'rider' ? 'rider' : 'shop'} />
+        </Card>
+      )}
     </QueryProvider>
   );
 }
