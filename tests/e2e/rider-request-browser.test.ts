@@ -91,6 +91,7 @@ describe('a rider posts a request, a builder bids, the rider compares and accept
     await screenshot(page, 'job-after-accept');
     await page.goto(requestUrl);
     await page.getByTestId('job-link').waitFor();
+    await page.getByTestId('bid-row').first().waitFor();
     await expect(page.getByTestId('status').first().getAttribute('data-status')).resolves.toBe('awarded');
     const statuses = await page.getByTestId('bid-row').locator('[data-status]').evaluateAll((els) => els.map((e) => e.getAttribute('data-status')));
     expect(statuses).toEqual(['accepted']);
