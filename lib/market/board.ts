@@ -125,8 +125,10 @@ export async function boardPage(db: Knex, actor: SessionUser, query: BoardQuery,
     if (query.neededByTo) q.where('r.needed_by', '<=', query.neededByTo);
     if (radiusMiles !== undefined) {
       const box = boundingBox(shop, radiusMiles);
-      q.whereBetween('r.latitude', [box.minLat, box.maxLat]);
-      if (box.minLon !== null && box.maxLon !== null) q.whereBetween('r.longitude', [box.minLon, box.maxLon]);
+      // Both axes in one box test, which the open requests' point index answers (see its migration).
+      if (box.minLon !== null && box.maxLon !== null) {
+        q.whereRaw('point(r.longitude, r.latitude) <@ box(point(?::float8, ?::float8), point(?::float8, ?::float8))', [box.minLon, box.minLat, box.maxLon, box.maxLat]);
+      } else q.whereBetween('r.latitude', [box.minLat, box.maxLat]);
       q.where(distance, '<=', radiusMiles);
     }
     if (query.capabilityFilter) {

@@ -112,6 +112,29 @@ export function assessSpec(wheels: WheelSpec[], frame: FrameSpec): SpecAssessmen
   return { verdict, wheels: assessed, baseline: { lowCents: sum('lowCents'), typicalCents: sum('typicalCents'), highCents: sum('highCents') } };
 }
 
+/** Findings kept per spec: the engine is pure, so the same spec always gives the same findings. */
+const assessedSpecs = new Map<string, SpecAssessment>();
+const ASSESSED_SPECS_KEPT = 2_000;
+
+/**
+ * assessSpec for pages that show a stored spec on every view (the request page): the engine's work is
+ * the costliest part of that page, and a spec changes far less often than it is read. The least
+ * recently read specs are forgotten first. Callers must not change the result.
+ */
+export function assessSpecCached(wheels: WheelSpec[], frame: FrameSpec): SpecAssessment {
+  const key = JSON.stringify([wheels, frame]);
+  const kept = assessedSpecs.get(key);
+  if (kept) {
+    assessedSpecs.delete(key);
+    assessedSpecs.set(key, kept);
+    return kept;
+  }
+  const fresh = assessSpec(wheels, frame);
+  assessedSpecs.set(key, fresh);
+  if (assessedSpecs.size > ASSESSED_SPECS_KEPT) assessedSpecs.delete(assessedSpecs.keys().next().value!);
+  return fresh;
+}
+
 /** The wheels with a builder's proposed changes laid over them. */
 export function applyProposedChange(wheels: WheelSpec[], change: ProposedChange): WheelSpec[] {
   for (const c of change.wheels) {
