@@ -20,8 +20,8 @@ export function MoneySummary({ job }: { job: JobView }) {
     <div className="space-y-4">
       <dl className="divide-y divide-chalk-200">
         <Row label="Price (paid by the rider)" value={formatCents(job.priceCents)} strong testId="job-price" />
-        <Row label={`Referral fee (${pct}%)`} value={formatCents(job.feeCents)} testId="job-fee" />
-        <Row label="Builder receives" value={formatCents(job.builderReceivesCents)} testId="job-builder-receives" />
+        <Row label={job.moneyDecided ? 'Referral fee' : `Referral fee (${pct}%)`} value={formatCents(job.feeCents)} testId="job-fee" />
+        <Row label={job.moneyDecided ? 'Builder receives' : 'Builder receives on completion'} value={formatCents(job.builderReceivesCents)} testId="job-builder-receives" />
       </dl>
       {m.chargedCents > 0 && (
         <div>

@@ -6,7 +6,7 @@ import { NotFound } from '@/lib/errors';
 import type { PaymentsContext } from './context';
 import { disputeView, type DisputeRow, type DisputeView } from './disputes';
 import { sideOf, type JobSide } from './jobAccess';
-import { canMoveJob, isJobId, JOB_STATUS_LABELS, type JobRow, type JobStatus } from './jobStates';
+import { canMoveJob, FINAL_STATUSES, isJobId, JOB_STATUS_LABELS, type JobRow, type JobStatus } from './jobStates';
 import { jobMoney, type JobMoney } from './ledger';
 import type { PaymentRow } from './pay';
 import { cancellationTerms, REFUND_POLICY, splitFor, type MoneySplit } from './policy';
@@ -32,9 +32,10 @@ export interface JobView {
   delivery: 'ship' | 'pickup';
   priceCents: number;
   feeBps: number;
-  /** The fee and the builder's payout if the whole price is released. */
+  /** The fee and the builder's payout: if the whole price is released, or as decided once money has moved. */
   feeCents: number;
   builderReceivesCents: number;
+  moneyDecided: boolean;
   handover: { method: 'carrier' | 'pickup'; carrier: string | null; trackingNumber: string | null } | null;
   autoConfirmAt: string | null;
   timeline: TimelineStep[];
@@ -154,6 +155,7 @@ async function assemble(ctx: PaymentsContext, job: JoinedJob, side: JobSide): Pr
   const cancelSide = side === 'rider' || side === 'builder' ? side : null;
   const terms = cancelSide ? cancellationTerms(job.status, cancelSide, job.price_cents, feeBps) : null;
   const paymentInFlight = payment?.status === 'succeeded' || payment?.status === 'processing';
+  const decided = job.fee_cents !== null || FINAL_STATUSES.includes(job.status);
   return {
     id: job.id,
     requestId: job.request_id,
@@ -166,8 +168,9 @@ async function assemble(ctx: PaymentsContext, job: JoinedJob, side: JobSide): Pr
     delivery: job.delivery,
     priceCents: job.price_cents,
     feeBps,
-    feeCents: job.fee_cents ?? full.feeCents,
-    builderReceivesCents: job.fee_cents !== null ? job.price_cents - job.fee_cents : full.payoutCents,
+    feeCents: decided ? (job.fee_cents ?? 0) : full.feeCents,
+    builderReceivesCents: decided ? (payout?.amount_cents ?? 0) : full.payoutCents,
+    moneyDecided: decided,
     handover: job.handover ? { method: job.handover, carrier: job.carrier, trackingNumber: job.tracking_number } : null,
     autoConfirmAt: job.status === 'shipped' ? iso(job.auto_confirm_at) : null,
     timeline: timeline(job),

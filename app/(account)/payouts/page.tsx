@@ -1,3 +1,4 @@
+import { QueryProvider } from '@/components/providers/QueryProvider';
 import { Card } from '@/components/ui/Card';
 import { Notice } from '@/components/ui/Notice';
 import { PageHeading } from '@/components/ui/PageHeading';
@@ -16,7 +17,7 @@ export default async function PayoutsPage({ searchParams }: { searchParams: Prom
   const query = await searchParams;
   const status = await payoutStatus(paymentsContext(), user);
   return (
-    <>
+    <QueryProvider>
       <PageHeading title="Payouts" lead="Where the money for your builds goes. Riders can pay into escrow for your bids once this is set up." />
       <div className="max-w-2xl space-y-4">
         {query.link === 'expired' && <Notice tone="caution">That setup link had expired or was already used. Start again below; it only takes a moment.</Notice>}
@@ -54,6 +55,6 @@ export default async function PayoutsPage({ searchParams }: { searchParams: Prom
           The rider&apos;s money is held in escrow from the day they pay. Do not order parts or start work before the job shows it is paid. You are paid when the rider confirms receipt, or automatically a set number of days after you ship if no dispute is open.
         </Notice>
       </div>
-    </>
+    </QueryProvider>
   );
 }

@@ -37,6 +37,13 @@ function ErrorNotice({ error }: { error: PaymentsApiError }) {
   );
 }
 
+/** The status in the page heading, kept in step with the panel below. */
+export function LiveJobStatus({ initial }: { initial: JobView }) {
+  const { data } = useJob(initial.id, initial);
+  const job = data ?? initial;
+  return <JobStatusBadge status={job.status} label={job.statusLabel} />;
+}
+
 /** The job page's live part: the status, what happens next, and the buttons this viewer may press. */
 export function JobPanel({ initial }: { initial: JobView }) {
   // While a payment is in and the webhook has not landed yet, keep looking.

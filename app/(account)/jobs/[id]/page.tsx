@@ -1,5 +1,4 @@
 import { notFound } from 'next/navigation';
-import { JobStatusBadge } from '@/components/payments/JobStatusBadge';
 import { QueryProvider } from '@/components/providers/QueryProvider';
 import { ReviewForm } from '@/components/reviews/ReviewForm';
 import { Card } from '@/components/ui/Card';
@@ -8,7 +7,7 @@ import { requirePageUser } from '@/lib/auth/guard';
 import { NotFound } from '@/lib/errors';
 import { paymentsContext } from '@/lib/payments/defaultContext';
 import { getJobForViewer } from '@/lib/payments/jobView';
-import { JobPanel } from './page-client';
+import { JobPanel, LiveJobStatus } from './page-client';
 
 export const metadata = { title: 'Job' };
 export const dynamic = 'force-dynamic';
@@ -23,7 +22,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const who = job.viewer === 'rider' ? `Built by ${job.shop.name}` : job.viewer === 'builder' ? `For ${job.riderName}` : `${job.riderName} with ${job.shop.name}`;
   return (
     <QueryProvider>
-      <PageHeading title={job.title} lead={`${who} · ${job.delivery === 'pickup' ? 'local pickup' : 'shipped'}`} actions={<JobStatusBadge status={job.status} label={job.statusLabel} />} />
+      <PageHeading title={job.title} lead={`${who} · ${job.delivery === 'pickup' ? 'local pickup' : 'shipped'}`} actions={<LiveJobStatus initial={job} />} />
       <JobPanel initial={job} />
       {job.status === 'completed' && job.viewer !== 'admin' && (
         <Card className="mt-6">

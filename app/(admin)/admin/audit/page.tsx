@@ -49,7 +49,11 @@ export default async function AuditPage() {
                   </td>
                   <td className="px-3 py-2">
                     {e.reason && <p className="whitespace-pre-wrap">{e.reason}</p>}
-                    <p className="font-mono text-xs text-ink-500">{JSON.stringify(e.details)}</p>
+                    <p className="break-words text-xs text-ink-500">
+                      {Object.entries(e.details)
+                        .map(([k, v]) => `${k}: ${typeof v === 'object' ? JSON.stringify(v) : String(v)}`)
+                        .join(' · ')}
+                    </p>
                   </td>
                 </tr>
               ))}
