@@ -16,8 +16,13 @@ export type LedgerAccount = (typeof LEDGER_ACCOUNTS)[number];
 export const LEDGER_KINDS = ['charge', 'release', 'refund_due', 'refund', 'transfer', 'reversal'] as const;
 export type LedgerKind = (typeof LEDGER_KINDS)[number];
 
+/** The books would not balance: the change is refused whole. People see a plain message; the detail goes to the log. */
 export class LedgerImbalance extends DomainError {
   readonly status = 500;
+  constructor(readonly detail: string) {
+    super('This change was stopped because the job’s books would not balance. Nothing was changed; please contact us.');
+    console.error(`ledger: ${detail}`);
+  }
 }
 
 export interface Posting {
