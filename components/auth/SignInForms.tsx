@@ -24,7 +24,7 @@ export function PasswordSignInForm({ callbackUrl }: { callbackUrl: string }) {
     setFailure(null);
     const result = await signIn('password', { ...values, redirect: false });
     if (!result || result.error) {
-      setFailure('That e-mail and password do not match an account.');
+      setFailure(result?.status === 429 ? 'Too many sign-in attempts. Please wait a few minutes and try again.' : 'That e-mail and password do not match an account.');
       return;
     }
     router.push(callbackUrl);

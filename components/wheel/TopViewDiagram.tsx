@@ -22,6 +22,8 @@ export function TopViewDiagram({ view, unit }: { view: TopView; unit: LengthUnit
   const outlineLeft = [...fullSide].reverse().map((p) => `${sx(-p.w).toFixed(1)},${sy(p.y).toFixed(1)}`);
   const clear = view.clearanceMm;
   const tone = clear === null ? '#5a6474' : clear < 0 ? '#b4441f' : clear < 3 ? '#c18a0f' : '#4a7a2f';
+  // The amber reads as a line but is too light for small text (WCAG AA wants 4.5:1): a darker shade there.
+  const textTone = tone === '#c18a0f' ? '#845c00' : tone;
   return (
     <figure className="space-y-2">
       <svg viewBox={`0 0 ${width} ${height}`} className="w-full" role="img" aria-label="Top view of tire, chain and cog" data-testid="topview-diagram">
@@ -73,7 +75,7 @@ export function TopViewDiagram({ view, unit }: { view: TopView; unit: LengthUnit
       </svg>
       <figcaption className="text-center text-xs text-ink-500">
         Narrowest gap between chain and {view.clearancePart ?? 'tire'}:{' '}
-        <strong style={{ color: tone }} data-testid="clearance">
+        <strong style={{ color: textTone }} data-testid="clearance">
           {clear === null ? 'not computed' : formatLength(clear, unit)}
         </strong>
         . Sideways distances are stretched to show the gap.

@@ -14,6 +14,7 @@ const ERRORS: Record<string, string> = {
   Verification: 'That sign-in link has already been used or has expired. Ask for a new one below.',
   EmailSignin: 'We could not send the sign-in e-mail. Try again in a moment.',
   CredentialsSignin: 'That e-mail and password do not match an account.',
+  TooManyAttempts: 'Too many sign-in attempts. Please wait a few minutes and try again.',
 };
 
 function safeCallback(raw: string | undefined): string | null {

@@ -109,7 +109,10 @@ export default async function ShopPage({ params }: { params: Promise<{ slug: str
               </div>
               {c.hubDrilling && (
                 <div>
-                  <Badge tone="brass">Drills hub flanges for thicker spokes</Badge>
+                  <dt className="sr-only">Hub drilling</dt>
+                  <dd>
+                    <Badge tone="brass">Drills hub flanges for thicker spokes</Badge>
+                  </dd>
                 </div>
               )}
             </dl>
