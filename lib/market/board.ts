@@ -125,7 +125,7 @@ export async function boardPage(db: Knex, actor: SessionUser, query: BoardQuery,
     if (query.neededByTo) q.where('r.needed_by', '<=', query.neededByTo);
     if (radiusMiles !== undefined) {
       const box = boundingBox(shop, radiusMiles);
-      // Both axes in one box test, which the open requests' point index answers (see its migration).
+      // Both axes in one box test, which the open requests' covering point index answers (see its migration).
       if (box.minLon !== null && box.maxLon !== null) {
         q.whereRaw('point(r.longitude, r.latitude) <@ box(point(?::float8, ?::float8), point(?::float8, ?::float8))', [box.minLon, box.minLat, box.maxLon, box.maxLat]);
       } else q.whereBetween('r.latitude', [box.minLat, box.maxLat]);
@@ -139,8 +139,14 @@ export async function boardPage(db: Knex, actor: SessionUser, query: BoardQuery,
       if (caps.spokeCounts.length) q.whereRaw('r.spoke_counts <@ ?::integer[]', [caps.spokeCounts]);
     }
     if (cursor) q.whereRaw(`(${keySql.toQuery()}, r.id) ${order === 'asc' ? '>' : '<'} (?::${key.cast}, ?::uuid)`, [cursor.v, cursor.id]);
-    return q
-      .orderByRaw(`${keySql.toQuery()} ${order}, r.id ${order}`)
+    const pageOrder = `${keySql.toQuery()} ${order}, r.id ${order}`;
+    // The page's ids first, from the filter and sort columns alone (a radius search reads them all from
+    // its covering index, never from the table), then the full rows and their bid counts for that page only.
+    const page = q.orderByRaw(pageOrder).select('r.id').limit(query.limit + 1);
+    return db
+      .from(page.as('page'))
+      .join('wheel_requests as r', 'r.id', 'page.id')
+      .orderByRaw(pageOrder)
       .select(
         'r.id',
         'r.title',
@@ -165,8 +171,7 @@ export async function boardPage(db: Knex, actor: SessionUser, query: BoardQuery,
               from bids b where b.request_id = r.id and b.shop_id = ? order by b.created_at desc limit 1) as my_bid`,
           [shopId],
         ),
-      )
-      .limit(query.limit + 1);
+      );
   };
 
   let rows: Awaited<ReturnType<typeof fetchRows>> | undefined;

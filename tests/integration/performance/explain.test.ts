@@ -11,7 +11,7 @@ import { listShopBids } from '@/lib/market/listShopBids';
 import { listThreads } from '@/lib/market/threads';
 import { boardQuerySchema } from '@/lib/market/schema';
 import type { ScaleData } from '../../../scripts/lib/scale/generate';
-import { captureQueries, explain, filledDatabase, indexesUsed, seqScans, type CapturedQuery } from './support';
+import { captureQueries, explain, filledDatabase, indexOnlyScans, indexesUsed, seqScans, type CapturedQuery } from './support';
 
 const BIG_TABLES = ['wheel_requests', 'bids', 'messages'];
 
@@ -38,23 +38,24 @@ afterAll(() => db?.destroy());
 const reads = (queries: CapturedQuery[]) => queries.filter((q) => /^\s*select/i.test(q.sql));
 
 /** EXPLAINs every read; fails on a sequential scan of a big table. Returns each read's indexes. */
-async function checkReads(queries: CapturedQuery[]): Promise<{ sql: string; indexes: string[] }[]> {
-  const out: { sql: string; indexes: string[] }[] = [];
+async function checkReads(queries: CapturedQuery[]): Promise<{ sql: string; indexes: string[]; indexOnly: string[] }[]> {
+  const out: { sql: string; indexes: string[]; indexOnly: string[] }[] = [];
   for (const q of reads(queries)) {
     const plan = await explain(db, q);
     const bigSeq = seqScans(plan).filter((t) => BIG_TABLES.includes(t));
     expect(bigSeq, `sequential scan of ${bigSeq.join(', ')} in:\n${q.sql}`).toEqual([]);
-    out.push({ sql: q.sql, indexes: indexesUsed(plan) });
+    out.push({ sql: q.sql, indexes: indexesUsed(plan), indexOnly: indexOnlyScans(plan) });
   }
   return out;
 }
 
-const BOARD_SHAPES: { name: string; query: Record<string, string>; index?: RegExp }[] = [
+/** `radius`: the search reads the box around the shop from the covering point index alone. */
+const BOARD_SHAPES: { name: string; query: Record<string, string>; index?: RegExp; radius?: boolean }[] = [
   { name: 'newest first, no filter', query: {}, index: /wheel_requests_open_published/ },
-  { name: 'nearest first within 250 miles', query: { sort: 'distance', maxMiles: '250' }, index: /wheel_requests_open_point/ },
-  { name: 'nearest first, growing circles', query: { sort: 'distance' }, index: /wheel_requests_open_point/ },
-  { name: 'newest within 250 miles, 4-inch rims', query: { sort: 'newest', maxMiles: '250', rimWidthIn: '4' }, index: /wheel_requests_open_point/ },
-  { name: 'needed-by within 400 miles, 26-inch', query: { sort: 'neededBy', maxMiles: '400', diameterIn: '26' } },
+  { name: 'nearest first within 250 miles', query: { sort: 'distance', maxMiles: '250' }, radius: true },
+  { name: 'nearest first, growing circles', query: { sort: 'distance' }, radius: true },
+  { name: 'newest within 250 miles, 4-inch rims', query: { sort: 'newest', maxMiles: '250', rimWidthIn: '4' }, radius: true },
+  { name: 'needed-by within 400 miles, 26-inch', query: { sort: 'neededBy', maxMiles: '400', diameterIn: '26' }, radius: true },
   { name: 'largest budget first, 72 spokes', query: { sort: 'budget', spokes: '72' } },
   { name: 'budget band, capability filter off', query: { budgetMinCents: '40000', budgetMaxCents: '90000', capabilityFilter: 'off' } },
 ];
@@ -73,6 +74,7 @@ describe('the builder board', () => {
         expect(read.indexes.some((i) => /bids_/.test(i))).toBe(true);
       }
       if (shape.index) expect(boardReads.flatMap((r) => r.indexes).join(' ')).toMatch(shape.index);
+      if (shape.radius) for (const read of boardReads) expect(read.indexOnly).toContain('wheel_requests_open_point_covering');
     });
   }
 

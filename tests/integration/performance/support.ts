@@ -93,6 +93,13 @@ export function indexesUsed(node: PlanNode): string[] {
     .map((n) => `${n['Relation Name'] ?? '?'}.${n['Index Name']}`);
 }
 
+/** Indexes read without visiting the table. */
+export function indexOnlyScans(node: PlanNode): string[] {
+  return planNodes(node)
+    .filter((n) => n['Node Type'] === 'Index Only Scan')
+    .map((n) => n['Index Name'] ?? '?');
+}
+
 export function seqScans(node: PlanNode): string[] {
   return planNodes(node)
     .filter((n) => n['Node Type'] === 'Seq Scan')
