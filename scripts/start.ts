@@ -5,7 +5,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { databaseUrl, ensureDatabase, initCluster, resolveClusterDir, startCluster, stopCluster } from './lib/postgres';
 import { migrateLatest, seedDemo } from './lib/database';
-import { stopAll } from './lib/processes';
+import { signalAll, stopAll } from './lib/processes';
 import { startStack } from './lib/stack';
 import { DEMO_ACCOUNTS } from '../lib/demo';
 
@@ -79,14 +79,27 @@ async function main() {
   console.log(`\n E-mailed sign-in links land in the demo mailbox: ${appUrl}/admin/mailbox (as the admin).`);
   console.log(' Press Ctrl+C to stop everything.\n');
 
-  const shutdown = async () => {
+  // Stop fast: whoever stops us may follow up with SIGKILL within seconds, and the services run in
+  // their own process groups, so they are signalled here rather than left behind.
+  let stopping = false;
+  const shutdown = () => {
+    if (stopping) return;
+    stopping = true;
     console.log('\nStopping…');
-    await stopAll();
-    stopCluster(clusterDir);
-    process.exit(0);
+    signalAll('SIGTERM');
+    try {
+      stopCluster(clusterDir);
+    } catch (err) {
+      console.error('PostgreSQL did not stop cleanly:', (err as Error).message);
+    }
+    setTimeout(() => {
+      signalAll('SIGKILL');
+      process.exit(0);
+    }, 1_500).unref();
   };
   process.on('SIGINT', shutdown);
   process.on('SIGTERM', shutdown);
+  process.on('SIGHUP', shutdown);
 }
 
 main().catch(async (err) => {

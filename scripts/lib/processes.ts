@@ -53,6 +53,18 @@ export async function stopService(service: Service, signal: NodeJS.Signals = 'SI
   if (i >= 0) running.splice(i, 1);
 }
 
+/** Signals every running service's process group at once, without waiting: for shutting down in a hurry. */
+export function signalAll(signal: NodeJS.Signals): void {
+  for (const { child } of running) {
+    if (child.exitCode !== null || child.signalCode !== null) continue;
+    try {
+      process.kill(-child.pid!, signal);
+    } catch {
+      /* already gone */
+    }
+  }
+}
+
 export async function stopAll(): Promise<void> {
   await Promise.all([...running].reverse().map((s) => stopService(s)));
 }
