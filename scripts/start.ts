@@ -42,10 +42,33 @@ function buildIfNeeded() {
   fs.writeFileSync(stampFile, stamp);
 }
 
+let clusterDir: string | null = null;
+
 async function main() {
+  // Stop fast: whoever stops us may follow up with SIGKILL within seconds, and the services run in
+  // their own process groups, so they are signalled here rather than left behind.
+  let stopping = false;
+  const shutdown = () => {
+    if (stopping) return;
+    stopping = true;
+    console.log('\nStopping…');
+    signalAll('SIGTERM');
+    try {
+      if (clusterDir) stopCluster(clusterDir);
+    } catch (err) {
+      console.error('PostgreSQL did not stop cleanly:', (err as Error).message);
+    }
+    setTimeout(() => {
+      signalAll('SIGKILL');
+      process.exit(0);
+    }, 1_500).unref();
+  };
+  process.on('SIGINT', shutdown);
+  process.on('SIGTERM', shutdown);
+  process.on('SIGHUP', shutdown);
   fs.mkdirSync(dataDir, { recursive: true });
   step('PostgreSQL');
-  const clusterDir = resolveClusterDir(path.join(dataDir, 'pg'));
+  clusterDir = resolveClusterDir(path.join(dataDir, 'pg'));
   initCluster({ dir: clusterDir, port: pgPort });
   startCluster({ dir: clusterDir, port: pgPort });
   ensureDatabase({ dir: clusterDir, port: pgPort }, 'lacewright');
@@ -79,27 +102,6 @@ async function main() {
   console.log(`\n E-mailed sign-in links land in the demo mailbox: ${appUrl}/admin/mailbox (as the admin).`);
   console.log(' Press Ctrl+C to stop everything.\n');
 
-  // Stop fast: whoever stops us may follow up with SIGKILL within seconds, and the services run in
-  // their own process groups, so they are signalled here rather than left behind.
-  let stopping = false;
-  const shutdown = () => {
-    if (stopping) return;
-    stopping = true;
-    console.log('\nStopping…');
-    signalAll('SIGTERM');
-    try {
-      stopCluster(clusterDir);
-    } catch (err) {
-      console.error('PostgreSQL did not stop cleanly:', (err as Error).message);
-    }
-    setTimeout(() => {
-      signalAll('SIGKILL');
-      process.exit(0);
-    }, 1_500).unref();
-  };
-  process.on('SIGINT', shutdown);
-  process.on('SIGTERM', shutdown);
-  process.on('SIGHUP', shutdown);
 }
 
 main().catch(async (err) => {
