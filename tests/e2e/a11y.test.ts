@@ -20,7 +20,10 @@ beforeAll(async () => {
   visitors = signedIn.visitors;
   world = new World(db, signedIn.users);
 });
-afterAll(() => db?.destroy());
+afterAll(async () => {
+  await world?.cancelOpenRequests();
+  await db?.destroy();
+});
 
 interface AxeResult {
   violations: { id: string; impact: string | null; help: string; nodes: { target: string[]; failureSummary?: string }[] }[];

@@ -4,9 +4,10 @@ import knex, { type Knex } from 'knex';
 import sharp from 'sharp';
 import { inject } from 'vitest';
 import { knexConfig } from '../../knexfile';
-import { loadSessionUser } from '@/lib/auth/accounts';
+import { createAccount, loadSessionUser } from '@/lib/auth/accounts';
 import type { SessionUser } from '@/lib/auth/roles';
 import { acceptBid } from '@/lib/market/acceptBid';
+import { cancelRequest } from '@/lib/market/cancelRequest';
 import { createRequest } from '@/lib/market/createRequest';
 import { placeBid } from '@/lib/market/placeBid';
 import { postMessage } from '@/lib/market/messages';
@@ -19,17 +20,11 @@ import { startPayment } from '@/lib/payments/pay';
 import { startPayoutSetup } from '@/lib/payments/payoutAccounts';
 import { Visitor } from '../support/http';
 
-export const DEMO_PASSWORD = 'lacewright-demo';
 export const PRINCIPALS = ['anonymous', 'riderA', 'riderB', 'builderX', 'builderY', 'admin'] as const;
 export type Principal = (typeof PRINCIPALS)[number];
+type Person = Exclude<Principal, 'anonymous'>;
 
-export const DEMO_EMAILS: Record<Exclude<Principal, 'anonymous'>, string> = {
-  riderA: 'rider@demo.lacewright.test',
-  riderB: 'rider2@demo.lacewright.test',
-  builderX: 'builder@demo.lacewright.test', // Copperline Wheel Shop
-  builderY: 'builder2@demo.lacewright.test', // Harbor Street Spokesmiths
-  admin: 'admin@demo.lacewright.test',
-};
+const PASSWORD = 'an adversarial test password';
 
 export function appDb(): Knex {
   return knex(knexConfig(inject('appDatabaseUrl')));
@@ -43,17 +38,29 @@ export async function until(check: () => Promise<boolean>, what: string, timeout
   }
 }
 
-/** Signed-in visitors for every principal (anonymous has no cookie), and their session users. */
-export async function signInAll(db: Knex): Promise<{ visitors: Record<Principal, Visitor>; users: Record<Exclude<Principal, 'anonymous'>, SessionUser> }> {
+/**
+ * Fresh people for one test file (so its mail, jobs and lists are its own): two riders, builders of two new
+ * shops and an admin, each signed in over HTTP; anonymous has no cookie.
+ */
+export async function signInAll(db: Knex): Promise<{ visitors: Record<Principal, Visitor>; users: Record<Person, SessionUser> }> {
+  const tag = `${Date.now().toString(36)}-${process.pid}`;
+  const email = (who: string) => `${who}-${tag}@example.test`;
+  const made: Record<Person, SessionUser> = {
+    riderA: await createAccount(db, { role: 'rider', name: 'Adversarial Rider A', email: email('rider-a'), password: PASSWORD }),
+    riderB: await createAccount(db, { role: 'rider', name: 'Adversarial Rider B', email: email('rider-b'), password: PASSWORD }),
+    builderX: await createAccount(db, { role: 'builder', name: 'Adversarial Builder X', email: email('builder-x'), password: PASSWORD, shopName: `Test Truing Bench X ${tag}`, zip: '87102' }),
+    builderY: await createAccount(db, { role: 'builder', name: 'Adversarial Builder Y', email: email('builder-y'), password: PASSWORD, shopName: `Test Truing Bench Y ${tag}`, zip: '90802' }),
+    admin: await createAccount(db, { role: 'rider', name: 'Adversarial Admin', email: email('admin'), password: PASSWORD }),
+  };
+  await db('users').where({ id: made.admin.id }).update({ role: 'admin' });
   const visitors = { anonymous: new Visitor() } as Record<Principal, Visitor>;
-  const users = {} as Record<Exclude<Principal, 'anonymous'>, SessionUser>;
-  for (const [principal, email] of Object.entries(DEMO_EMAILS) as [Exclude<Principal, 'anonymous'>, string][]) {
+  const users = {} as Record<Person, SessionUser>;
+  for (const [principal, user] of Object.entries(made) as [Person, SessionUser][]) {
     const visitor = new Visitor();
-    const res = await visitor.signInWithPassword(email, DEMO_PASSWORD);
-    if (res.status !== 200) throw new Error(`sign-in as ${email} answered ${res.status}`);
+    const res = await visitor.signInWithPassword(user.email, PASSWORD);
+    if (res.status !== 200) throw new Error(`sign-in as ${user.email} answered ${res.status}`);
     visitors[principal] = visitor;
-    const row = await db('users').where({ email }).first('id');
-    users[principal] = (await loadSessionUser(db, row.id))!;
+    users[principal] = (await loadSessionUser(db, user.id))!;
   }
   return { visitors, users };
 }
@@ -85,7 +92,7 @@ export class World {
 
   constructor(
     readonly db: Knex,
-    readonly users: Record<Exclude<Principal, 'anonymous'>, SessionUser>,
+    readonly users: Record<Person, SessionUser>,
   ) {
     const fake = new URL(inject('paymentsFakeUrl'));
     this.ctx = {
@@ -100,6 +107,14 @@ export class World {
     const json = (await res.json()) as Record<string, unknown>;
     if (!res.ok) throw new Error(`payments stand-in ${path}: ${res.status} ${JSON.stringify(json)}`);
     return json;
+  }
+
+  /** Takes this file's open requests off the builders' board, so other files see the board they expect. */
+  async cancelOpenRequests(): Promise<void> {
+    for (const rider of [this.users.riderA, this.users.riderB]) {
+      const open = await this.db('wheel_requests').where({ rider_id: rider.id, status: 'open' }).pluck('id');
+      for (const id of open) await cancelRequest(this.db, rider, id);
+    }
   }
 
   /**
@@ -174,7 +189,7 @@ export class World {
 
   async shippedJob() {
     const world = await this.buildingJob();
-    await markShipped(this.ctx, this.users.builderX, world.jobId, { handover: 'carrier', carrier: 'Parcel Post', trackingNumber: 'TRK 1234-5678' });
+    await markShipped(this.ctx, this.users.builderX, world.jobId, { handover: 'carrier', carrier: 'Lanternline Freight', trackingNumber: 'TRK 1234-5678' });
     return world;
   }
 

@@ -20,6 +20,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   recordProof('authz-matrix', { routeChecks: checks });
+  await ctx?.world.cancelOpenRequests();
   await db?.destroy();
 });
 

@@ -27,6 +27,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   recordProof('faults', tally);
+  await world?.cancelOpenRequests();
   await db?.destroy();
 });
 
@@ -231,6 +232,7 @@ describe('Postgres restarts under the running app', () => {
       startCluster({ dir, port: inject('appClusterPort'), fast: true });
     }
     db = appDb();
+    world = new World(db, world.users);
 
     // The same session, the same server process: answers again within a few tries.
     await until(async () => (await rider.request(`/api/requests/${id}`)).status === 200, 'the app to answer after the restart', 30_000);

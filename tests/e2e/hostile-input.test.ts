@@ -62,6 +62,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   recordProof('hostile-input', { hostileBodies: sent });
+  await ctx?.world.cancelOpenRequests();
   await db?.destroy();
 });
 

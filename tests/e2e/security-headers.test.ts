@@ -18,7 +18,10 @@ beforeAll(async () => {
   visitors = signedIn.visitors;
   world = new World(db, signedIn.users);
 });
-afterAll(() => db?.destroy());
+afterAll(async () => {
+  await world?.cancelOpenRequests();
+  await db?.destroy();
+});
 
 function directives(policy: string): Record<string, string[]> {
   return Object.fromEntries(
