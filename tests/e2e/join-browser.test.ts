@@ -36,7 +36,7 @@ describe('joining and signing in, in a browser', () => {
     await screenshot(page, 'join-builder-filled');
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.waitForURL('**/board');
-    await expect(page.getByText(/Browser Spoke Room in Milwaukee, WI/).isVisible()).resolves.toBe(true);
+    await page.getByText(/Browser Spoke Room in Milwaukee, WI/).waitFor(); // the board streams in after the URL changes
     expect(await navLabels()).toEqual(['Open requests', 'My bids', 'Jobs', 'Payouts', 'Shop settings', 'Fit check']);
     await screenshot(page, 'board-after-join');
   });
