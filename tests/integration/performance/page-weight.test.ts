@@ -9,6 +9,8 @@ import { BuildOutput, kB, routePath, type RouteWeight } from './pageWeight';
 const DIST_DIR = path.resolve(process.env.NEXT_DIST_DIR ?? '.next-test');
 const BASELINE_ROUTE = '/_not-found/page';
 const BUDGET_KB = 40;
+/** How far under the budget a listed page may come before it must leave the list. */
+const LIST_SLACK_KB = 2;
 /** Pages that show a map and may load leaflet (on demand). */
 const MAP_ROUTES = ['/(public)/builders/page'];
 /** Not pages anyone navigates to. */
@@ -56,11 +58,12 @@ describe.skipIf(!hasBuild)(`first-load JavaScript (${path.basename(DIST_DIR)})`,
     expect(over).toEqual([]);
   });
 
-  it('keeps the list of pages over budget honest: each still over, none heavier than recorded', () => {
+  it('keeps the list of pages over budget honest: each page still there and not clearly within budget', () => {
     for (const route of Object.keys(OVER_BUDGET_CEILINGS_KB)) {
       const r = routes.find((x) => x.route === route);
       expect(r, `${route} is not in the build: remove it from the list`).toBeDefined();
-      expect(kB(r!.gzipBytes - baseline!.gzipBytes), `${route} is within budget now: remove it from the list`).toBeGreaterThan(BUDGET_KB);
+      // A little slack, so a page hovering at the budget does not flip the check from one build to the next.
+      expect(kB(r!.gzipBytes - baseline!.gzipBytes), `${route} is within budget now: remove it from the list`).toBeGreaterThan(BUDGET_KB - LIST_SLACK_KB);
     }
   });
 
